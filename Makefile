@@ -1,0 +1,65 @@
+# chute: the two README commands (make demo, make test) and the benchmark.
+# Each target installs the Debian packages it needs when they are missing
+# (apt-get update first; sudo when not root), configures with CMake, builds
+# and runs.
+
+BUILD_DIR        ?= build
+JOBS             ?= 2
+CMAKE_BUILD_TYPE ?= RelWithDebInfo
+CMAKE_EXTRA_FLAGS ?=
+
+BUILD_PACKAGES = cmake g++ make pkg-config libicu-dev libsqlite3-dev \
+                 libcli11-dev libgtest-dev libgmock-dev libssl-dev libcsv-dev \
+                 libxml2-dev python3
+# Outside references used by the tests (see README, "How chute is checked").
+TEST_PACKAGES  = python3-sklearn unicode-data r-cran-tm groff-base manpages \
+                 manpages-dev
+BENCH_PACKAGES = libbenchmark-dev python3-sklearn time
+
+SUDO := $(shell [ "$$(id -u)" = 0 ] || echo sudo)
+
+# Installs the packages in $(1) that dpkg does not report as installed.
+define install_missing
+	@missing=""; for p in $(1); do \
+	  dpkg-query -W -f='$${Status}' $$p 2>/dev/null | grep -q "ok installed" || missing="$$missing $$p"; \
+	done; \
+	if [ -n "$$missing" ]; then \
+	  echo "installing:$$missing"; \
+	  $(SUDO) apt-get update -qq && \
+	  DEBIAN_FRONTEND=noninteractive $(SUDO) apt-get install -y -qq --no-install-recommends $$missing >/dev/null; \
+	fi
+endef
+
+.PHONY: all deps test-deps bench-deps configure build demo test bench clean
+
+all: build
+
+deps:
+	$(call install_missing,$(BUILD_PACKAGES))
+
+test-deps: deps
+	$(call install_missing,$(TEST_PACKAGES))
+
+bench-deps: deps
+	$(call install_missing,$(BENCH_PACKAGES))
+
+configure:
+	cmake -S . -B $(BUILD_DIR) -DCMAKE_BUILD_TYPE=$(CMAKE_BUILD_TYPE) $(CMAKE_EXTRA_FLAGS)
+
+build: deps configure
+	cmake --build $(BUILD_DIR) -j $(JOBS)
+
+demo: build
+	@corpora/demo.sh $(BUILD_DIR)/chute
+
+test: test-deps configure
+	cmake --build $(BUILD_DIR) -j $(JOBS)
+	cd $(BUILD_DIR) && ctest --output-on-failure -j $(JOBS)
+
+bench: bench-deps
+	cmake -S . -B $(BUILD_DIR) -DCMAKE_BUILD_TYPE=Release -DCHUTE_BENCH=ON $(CMAKE_EXTRA_FLAGS)
+	cmake --build $(BUILD_DIR) -j $(JOBS)
+	tests/bench/run.sh $(BUILD_DIR)
+
+clean:
+	rm -rf $(BUILD_DIR)

@@ -1,0 +1,51 @@
+// Documents counted for learning, aggregated in memory so that a whole
+// command's counts reach the store in one transaction, written once, in key
+// order.
+#ifndef CHUTE_STORE_LEARN_BATCH_H_
+#define CHUTE_STORE_LEARN_BATCH_H_
+
+#include <cstdint>
+#include <functional>
+#include <string>
+#include <string_view>
+#include <unordered_map>
+#include <utility>
+#include <vector>
+
+namespace chute {
+
+class LearnBatch {
+ public:
+  struct Document {
+    std::string digest;  // SHA-256 of the raw bytes, lowercase hex
+    std::string queue;   // REQUIRES: a valid queue name
+    std::string source;  // where it came from (a path, or "-")
+    // (batch term id, count), sorted by term id; counts > 0.
+    std::vector<std::pair<uint32_t, int64_t>> counts;
+    int64_t tokens = 0;  // sum of counts
+  };
+
+  // Adds a document with its terms in any order. REQUIRES: terms not empty.
+  void Add(std::string digest, std::string queue, std::string source,
+           const std::vector<std::string>& terms);
+
+  const std::vector<Document>& documents() const { return documents_; }
+  const std::string& term(uint32_t id) const { return terms_[id]; }
+  size_t term_count() const { return terms_.size(); }
+  bool empty() const { return documents_.empty(); }
+
+ private:
+  struct StringHash {
+    using is_transparent = void;
+    size_t operator()(std::string_view s) const {
+      return std::hash<std::string_view>{}(s);
+    }
+  };
+  std::vector<Document> documents_;
+  std::vector<std::string> terms_;  // batch term id -> text
+  std::unordered_map<std::string, uint32_t, StringHash, std::equal_to<>> ids_;
+};
+
+}  // namespace chute
+
+#endif  // CHUTE_STORE_LEARN_BATCH_H_

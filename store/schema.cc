@@ -1,0 +1,82 @@
+#include "store/schema.h"
+
+#include <iterator>
+#include <string>
+
+#include "store/sqlite.h"
+
+namespace chute {
+
+namespace {
+
+// Migration i (1-based) brings a store from version i-1 to version i.
+// Released migrations are never edited; add new ones at the end.
+constexpr const char* kMigrations[] = {
+    // 1: the model and its ledger.
+    R"sql(
+CREATE TABLE settings (
+  key   TEXT PRIMARY KEY,
+  value TEXT NOT NULL
+) WITHOUT ROWID;
+CREATE TABLE queues (
+  id        INTEGER PRIMARY KEY,
+  name      TEXT NOT NULL UNIQUE,
+  documents INTEGER NOT NULL DEFAULT 0 CHECK (documents >= 0),
+  tokens    INTEGER NOT NULL DEFAULT 0 CHECK (tokens >= 0),
+  set_prior REAL CHECK (set_prior IS NULL OR (set_prior > 0 AND set_prior < 1)),
+  created   TEXT NOT NULL
+);
+CREATE TABLE terms (
+  id   INTEGER PRIMARY KEY,
+  text TEXT NOT NULL UNIQUE
+);
+CREATE TABLE counts (
+  term_id  INTEGER NOT NULL REFERENCES terms(id),
+  queue_id INTEGER NOT NULL REFERENCES queues(id),
+  n        INTEGER NOT NULL CHECK (n > 0),
+  PRIMARY KEY (term_id, queue_id)
+) WITHOUT ROWID;
+CREATE TABLE ledger (
+  id          INTEGER PRIMARY KEY,
+  digest      TEXT NOT NULL UNIQUE,
+  queue_id    INTEGER NOT NULL REFERENCES queues(id),
+  source      TEXT,
+  learned_at  TEXT NOT NULL,
+  tokens      INTEGER NOT NULL CHECK (tokens > 0),
+  term_counts BLOB NOT NULL
+);
+CREATE INDEX ledger_by_queue ON ledger(queue_id);
+)sql",
+};
+
+int UserVersion(sqlite3* db) {
+  sql::Statement st(db, "PRAGMA user_version");
+  return st.ok() && st.Step() == SQLITE_ROW ? static_cast<int>(st.ColumnInt(0))
+                                            : -1;
+}
+
+}  // namespace
+
+int SchemaVersion() { return static_cast<int>(std::size(kMigrations)); }
+
+Status Migrate(sqlite3* db, int target) {
+  for (int v = UserVersion(db); v < target; ++v) {
+    sql::Transaction tx(db);
+    if (!tx.status().ok()) return tx.status();
+    Status s = sql::Exec(db, kMigrations[v]);
+    if (!s.ok()) return s;
+    std::string bump = "PRAGMA user_version = " + std::to_string(v + 1);
+    s = sql::Exec(db, bump.c_str());
+    if (!s.ok()) return s;
+    if (v == 0) {
+      std::string app = "PRAGMA application_id = " + std::to_string(kApplicationId);
+      s = sql::Exec(db, app.c_str());
+      if (!s.ok()) return s;
+    }
+    s = tx.Commit();
+    if (!s.ok()) return s;
+  }
+  return Status::Ok();
+}
+
+}  // namespace chute

@@ -1,0 +1,49 @@
+// The store's schema and its numbered migrations.
+//
+// A chute store is one SQLite file. It is recognised by
+// PRAGMA application_id = kApplicationId and carries its schema version in
+// PRAGMA user_version. Tables (schema version 1):
+//
+//   settings  One row per model setting (key, value as text): the tokenizer
+//             options and the model options fixed at `init`, plus the
+//             version of chute that created the store.
+//   queues    One row per queue: its name (validated, see queue_name.h),
+//             the number of documents learned for it, N(q) (its total term
+//             count), an optional prior set by hand, and when it was created.
+//   terms     The vocabulary: one row per term with a non-zero count in some
+//             queue (a term whose counts all reach zero is deleted, so the
+//             row count is |V|).
+//   counts    N(q, w) > 0, keyed (term_id, queue_id); no zero rows.
+//   ledger    One row per learned document: the SHA-256 of its raw bytes
+//             (lowercase hex), its queue, the source path, when it was
+//             learned (RFC 3339, UTC), its number of term occurrences, and
+//             its own term counts encoded in one blob (term_counts_codec.h),
+//             so that it can be unlearned exactly.
+//
+// To change the schema: append a migration to kMigrations in schema.cc
+// (never edit a released one), which bumps kSchemaVersion; add the store of
+// the previous version to tests/store/migration_test.cc's cases.
+#ifndef CHUTE_STORE_SCHEMA_H_
+#define CHUTE_STORE_SCHEMA_H_
+
+#include <sqlite3.h>
+
+#include <cstdint>
+
+#include "store/status.h"
+
+namespace chute {
+
+// "chut" in ASCII: tells a chute store from any other SQLite file.
+inline constexpr int32_t kApplicationId = 0x63687574;
+
+// The schema version this build writes: the number of migrations.
+int SchemaVersion();
+
+// Applies migrations (from the store's current user_version) up to
+// `target`, each in its own transaction. REQUIRES: target <= SchemaVersion().
+Status Migrate(sqlite3* db, int target);
+
+}  // namespace chute
+
+#endif  // CHUTE_STORE_SCHEMA_H_

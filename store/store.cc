@@ -1,0 +1,501 @@
+#include "store/store.h"
+
+#include <fcntl.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
+#include <algorithm>
+#include <cerrno>
+#include <charconv>
+#include <cstring>
+#include <unordered_map>
+#include <unordered_set>
+
+#include "store/queue_name.h"
+#include "store/schema.h"
+#include "store/term_counts_codec.h"
+
+namespace chute {
+
+namespace {
+
+std::string FormatDouble(double v) {
+  char buf[32];
+  auto r = std::to_chars(buf, buf + sizeof buf, v);
+  return std::string(buf, r.ptr);
+}
+
+bool ParseDouble(std::string_view s, double* v) {
+  auto r = std::from_chars(s.data(), s.data() + s.size(), *v);
+  return r.ec == std::errc() && r.ptr == s.data() + s.size();
+}
+
+bool ParseInt(std::string_view s, int32_t* v) {
+  auto r = std::from_chars(s.data(), s.data() + s.size(), *v);
+  return r.ec == std::errc() && r.ptr == s.data() + s.size();
+}
+
+// Connection settings every open applies.
+Status Configure(sqlite3* db) {
+  sqlite3_busy_timeout(db, kBusyTimeoutMs);
+  for (const char* pragma :
+       {"PRAGMA foreign_keys = ON", "PRAGMA synchronous = FULL"}) {
+    Status s = sql::Exec(db, pragma);
+    if (!s.ok()) return s;
+  }
+  return Status::Ok();
+}
+
+Status OpenDb(const std::string& path, sql::DbHandle* out) {
+  sqlite3* raw = nullptr;
+  int rc = sqlite3_open_v2(path.c_str(), &raw, SQLITE_OPEN_READWRITE, nullptr);
+  out->reset(raw);
+  if (rc != SQLITE_OK) {
+    return Status::IoError(path + ": cannot open: " +
+                           (raw ? sqlite3_errmsg(raw) : sqlite3_errstr(rc)));
+  }
+  sqlite3_extended_result_codes(raw, 1);
+  return Status::Ok();
+}
+
+Status PragmaInt(sqlite3* db, const char* pragma, int64_t* v) {
+  sql::Statement st(db, pragma);
+  if (!st.ok() || st.Step() != SQLITE_ROW) return sql::ErrorStatus(db, pragma);
+  *v = st.ColumnInt(0);
+  return Status::Ok();
+}
+
+}  // namespace
+
+Store::Store(std::string path, sql::DbHandle db)
+    : path_(std::move(path)), db_(std::move(db)) {}
+
+Status Store::Create(const std::string& path, const StoreSettings& settings,
+                     std::unique_ptr<Store>* out) {
+  // Create the file ourselves so that it is 0600 from its first instant;
+  // SQLite gives its -wal and -shm files the same mode.
+  int fd = ::open(path.c_str(), O_CREAT | O_EXCL | O_WRONLY | O_CLOEXEC, 0600);
+  if (fd < 0) {
+    if (errno == EEXIST) {
+      return Status::InvalidArgument(path + ": already exists; chute init never overwrites a store");
+    }
+    return Status::IoError(path + ": cannot create: " + std::strerror(errno));
+  }
+  ::close(fd);
+  auto fail = [&](Status s) {
+    out->reset();
+    for (const char* suffix : {"", "-wal", "-shm", "-journal"}) {
+      ::unlink((path + suffix).c_str());
+    }
+    return s;
+  };
+  sql::DbHandle db;
+  Status s = OpenDb(path, &db);
+  if (s.ok()) s = sql::Exec(db.get(), "PRAGMA journal_mode = WAL");
+  if (s.ok()) s = Configure(db.get());
+  if (s.ok()) s = Migrate(db.get(), SchemaVersion());
+  if (!s.ok()) return fail(Status::IoError(path + ": " + s.message()));
+  std::unique_ptr<Store> store(new Store(path, std::move(db)));
+  s = store->SaveSettings(settings);
+  if (!s.ok()) return fail(Status::IoError(path + ": " + s.message()));
+  store->settings_ = settings;
+  *out = std::move(store);
+  return Status::Ok();
+}
+
+Status Store::Open(const std::string& path, std::unique_ptr<Store>* out) {
+  struct stat st;
+  if (::stat(path.c_str(), &st) != 0) {
+    if (errno == ENOENT) {
+      return Status::NotFound(path + ": no chute store here (create one with 'chute init')");
+    }
+    return Status::IoError(path + ": " + std::strerror(errno));
+  }
+  if (!S_ISREG(st.st_mode)) {
+    return Status::InvalidArgument(path + ": not a chute store (not a regular file)");
+  }
+  sql::DbHandle db;
+  Status s = OpenDb(path, &db);
+  if (!s.ok()) return s;
+  sqlite3_busy_timeout(db.get(), kBusyTimeoutMs);
+  int64_t app_id = 0, version = 0;
+  s = PragmaInt(db.get(), "PRAGMA application_id", &app_id);
+  if (s.ok()) s = PragmaInt(db.get(), "PRAGMA user_version", &version);
+  if (!s.ok()) {
+    if (s.code() == Status::Code::kCorruption) {
+      return Status::Corruption(path + ": not a chute store (not an SQLite database, or damaged)");
+    }
+    return Status::IoError(path + ": " + s.message());
+  }
+  if (app_id != kApplicationId) {
+    return Status::Corruption(path + ": not a chute store (an SQLite file of another program)");
+  }
+  if (version > SchemaVersion()) {
+    return Status::InvalidArgument(
+        path + ": store has schema version " + std::to_string(version) +
+        ", newer than this chute understands (" +
+        std::to_string(SchemaVersion()) + "); use a newer chute");
+  }
+  s = Configure(db.get());
+  if (s.ok() && version < SchemaVersion()) s = Migrate(db.get(), SchemaVersion());
+  if (!s.ok()) return Status::IoError(path + ": " + s.message());
+  std::unique_ptr<Store> store(new Store(path, std::move(db)));
+  s = store->LoadSettings();
+  if (!s.ok()) return s;
+  *out = std::move(store);
+  return Status::Ok();
+}
+
+Status Store::SaveSettings(const StoreSettings& settings) {
+  const TokenizerOptions& t = settings.tokenizer;
+  const ModelOptions& m = settings.model;
+  const std::pair<const char*, std::string> rows[] = {
+      {"alpha", FormatDouble(m.alpha)},
+      {"prior", m.prior == PriorMode::kUniform ? "uniform" : "learned"},
+      {"bigrams", t.bigrams ? "on" : "off"},
+      {"numbers", t.numbers == NumberMode::kFold ? "fold" : "keep"},
+      {"min_length", std::to_string(t.min_length)},
+      {"max_length", std::to_string(t.max_length)},
+  };
+  sql::Transaction tx(db_.get());
+  if (!tx.status().ok()) return tx.status();
+  sql::Statement put(db_.get(),
+                     "INSERT INTO settings(key, value) VALUES(?, ?) "
+                     "ON CONFLICT(key) DO UPDATE SET value = excluded.value");
+  if (!put.ok()) return Status::IoError(put.error());
+  for (const auto& [key, value] : rows) {
+    Status s = put.Bind(1, std::string_view(key)).Bind(2, value).Run();
+    if (!s.ok()) return s;
+  }
+  return tx.Commit();
+}
+
+Status Store::LoadSettings() {
+  sql::Statement st(db_.get(), "SELECT key, value FROM settings");
+  if (!st.ok()) return Status::Corruption(path_ + ": " + st.error());
+  StoreSettings s;
+  int seen = 0;
+  bool good = true;
+  while (st.Step() == SQLITE_ROW) {
+    std::string_view key = st.ColumnText(0), value = st.ColumnText(1);
+    ++seen;
+    if (key == "alpha") {
+      good &= ParseDouble(value, &s.model.alpha) && s.model.alpha > 0;
+    } else if (key == "prior") {
+      good &= value == "learned" || value == "uniform";
+      s.model.prior = value == "uniform" ? PriorMode::kUniform : PriorMode::kLearned;
+    } else if (key == "bigrams") {
+      good &= value == "on" || value == "off";
+      s.tokenizer.bigrams = value == "on";
+    } else if (key == "numbers") {
+      good &= value == "keep" || value == "fold";
+      s.tokenizer.numbers = value == "fold" ? NumberMode::kFold : NumberMode::kKeep;
+    } else if (key == "min_length") {
+      good &= ParseInt(value, &s.tokenizer.min_length);
+    } else if (key == "max_length") {
+      good &= ParseInt(value, &s.tokenizer.max_length);
+    } else {
+      --seen;
+    }
+  }
+  if (!good || seen != 6 || s.tokenizer.min_length < 1 ||
+      s.tokenizer.max_length < s.tokenizer.min_length) {
+    return Status::Corruption(path_ + ": the store's settings are damaged");
+  }
+  settings_ = s;
+  return Status::Ok();
+}
+
+Status Store::ListQueues(std::vector<QueueInfo>* out) {
+  out->clear();
+  sql::Statement st(db_.get(),
+                    "SELECT q.name, q.documents, q.tokens, q.set_prior, "
+                    "(SELECT COUNT(*) FROM counts c WHERE c.queue_id = q.id) "
+                    "FROM queues q ORDER BY q.name");
+  if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+  int rc;
+  while ((rc = st.Step()) == SQLITE_ROW) {
+    QueueInfo q;
+    q.name = st.ColumnText(0);
+    q.documents = st.ColumnInt(1);
+    q.tokens = st.ColumnInt(2);
+    if (!st.ColumnIsNull(3)) q.set_prior = st.ColumnDouble(3);
+    q.distinct_terms = st.ColumnInt(4);
+    out->push_back(std::move(q));
+  }
+  if (rc != SQLITE_DONE) return sql::ErrorStatus(db_.get(), path_);
+  return Status::Ok();
+}
+
+Status Store::LoadModelCounts(ModelCounts* out) {
+  *out = ModelCounts();
+  // Read in one transaction so that queues and counts agree.
+  Status s = sql::Exec(db_.get(), "BEGIN");
+  if (!s.ok()) return s;
+  struct EndRead {
+    sqlite3* db;
+    ~EndRead() { sqlite3_exec(db, "COMMIT", nullptr, nullptr, nullptr); }
+  } end_read{db_.get()};
+
+  std::unordered_map<int64_t, size_t> column;
+  {
+    sql::Statement st(db_.get(),
+                      "SELECT id, name, documents, tokens, set_prior FROM queues "
+                      "ORDER BY name");
+    if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+    while (st.Step() == SQLITE_ROW) {
+      QueueCounts q;
+      q.name = st.ColumnText(1);
+      q.documents = st.ColumnInt(2);
+      q.tokens = st.ColumnInt(3);
+      if (!st.ColumnIsNull(4)) q.set_prior = st.ColumnDouble(4);
+      column[st.ColumnInt(0)] = out->queues.size();
+      out->queues.push_back(std::move(q));
+    }
+  }
+  const size_t nq = out->queues.size();
+  sql::Statement st(db_.get(),
+                    "SELECT c.term_id, t.text, c.queue_id, c.n "
+                    "FROM counts c JOIN terms t ON t.id = c.term_id "
+                    "ORDER BY c.term_id");
+  if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+  int64_t last_term = -1;
+  int rc;
+  while ((rc = st.Step()) == SQLITE_ROW) {
+    int64_t term_id = st.ColumnInt(0);
+    if (term_id != last_term) {
+      out->terms.emplace_back(st.ColumnText(1));
+      out->counts.resize(out->counts.size() + nq, 0);
+      last_term = term_id;
+    }
+    auto col = column.find(st.ColumnInt(2));
+    if (col == column.end()) {
+      return Status::Corruption(path_ + ": counts name a queue that does not exist");
+    }
+    out->counts[(out->terms.size() - 1) * nq + col->second] = st.ColumnInt(3);
+  }
+  if (rc != SQLITE_DONE) return sql::ErrorStatus(db_.get(), path_);
+  return Status::Ok();
+}
+
+Status Store::FindDocument(const std::string& digest,
+                           std::optional<LedgerEntry>* out) {
+  out->reset();
+  sql::Statement st(db_.get(),
+                    "SELECT l.digest, q.name, l.source, l.learned_at, l.tokens "
+                    "FROM ledger l JOIN queues q ON q.id = l.queue_id "
+                    "WHERE l.digest = ?");
+  if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+  st.Bind(1, digest);
+  int rc = st.Step();
+  if (rc == SQLITE_ROW) {
+    *out = LedgerEntry{std::string(st.ColumnText(0)), std::string(st.ColumnText(1)),
+                       std::string(st.ColumnText(2)), std::string(st.ColumnText(3)),
+                       st.ColumnInt(4)};
+  } else if (rc != SQLITE_DONE) {
+    return sql::ErrorStatus(db_.get(), path_);
+  }
+  return Status::Ok();
+}
+
+Status Store::Learn(const LearnBatch& batch, const std::string& now,
+                    LearnResult* result) {
+  *result = LearnResult();
+  const auto& docs = batch.documents();
+  sqlite3* db = db_.get();
+  auto fail = [&](const Status& s) {
+    return Status(s.code() == Status::Code::kOk ? Status::IoError("unknown error") : s);
+  };
+  sql::Transaction tx(db);
+  if (!tx.status().ok()) {
+    return Status::Busy(path_ + ": " + tx.status().message());
+  }
+
+  // Queues of the batch: existing ids, or created now.
+  std::vector<std::string> queue_names;
+  std::unordered_map<std::string, size_t> queue_index;
+  for (const auto& d : docs) {
+    if (queue_index.emplace(d.queue, queue_names.size()).second) {
+      queue_names.push_back(d.queue);
+    }
+  }
+  std::vector<int64_t> queue_ids(queue_names.size(), 0);
+  {
+    sql::Statement find(db, "SELECT id FROM queues WHERE name = ?");
+    sql::Statement add(db, "INSERT INTO queues(name, created) VALUES(?, ?)");
+    if (!find.ok() || !add.ok()) return Status::IoError(path_ + ": " + find.error() + add.error());
+    for (size_t i = 0; i < queue_names.size(); ++i) {
+      find.Bind(1, queue_names[i]);
+      if (find.Step() == SQLITE_ROW) {
+        queue_ids[i] = find.ColumnInt(0);
+      } else {
+        Status v = ValidateQueueName(queue_names[i]);
+        if (!v.ok()) return v;
+        Status s = add.Bind(1, queue_names[i]).Bind(2, now).Run();
+        if (!s.ok()) return fail(s);
+        queue_ids[i] = sqlite3_last_insert_rowid(db);
+      }
+      find.Reset();
+    }
+  }
+
+  // Which documents are new; the ledger (and this batch) may know some.
+  result->outcomes.assign(docs.size(), LearnOutcome::kLearned);
+  result->known_queue.assign(docs.size(), std::string());
+  {
+    sql::Statement known(db,
+                         "SELECT q.name FROM ledger l JOIN queues q ON q.id = l.queue_id "
+                         "WHERE l.digest = ?");
+    if (!known.ok()) return Status::IoError(path_ + ": " + known.error());
+    std::unordered_map<std::string_view, size_t> in_batch;
+    for (size_t i = 0; i < docs.size(); ++i) {
+      std::string queue;
+      known.Bind(1, docs[i].digest);
+      if (known.Step() == SQLITE_ROW) queue = known.ColumnText(0);
+      known.Reset();
+      if (queue.empty()) {
+        auto [it, inserted] = in_batch.emplace(docs[i].digest, i);
+        if (!inserted) queue = docs[it->second].queue;
+      }
+      if (!queue.empty()) {
+        result->outcomes[i] = queue == docs[i].queue ? LearnOutcome::kAlreadyLearned
+                                                     : LearnOutcome::kOtherQueue;
+        result->known_queue[i] = queue;
+      }
+    }
+  }
+
+  // Aggregate N(q, w) and the queue totals over the new documents.
+  const uint64_t nq = queue_names.size();
+  std::unordered_map<uint64_t, int64_t> sums;  // term * nq + queue -> count
+  std::vector<int64_t> queue_docs(nq, 0), queue_tokens(nq, 0);
+  for (size_t i = 0; i < docs.size(); ++i) {
+    if (result->outcomes[i] != LearnOutcome::kLearned) continue;
+    size_t q = queue_index[docs[i].queue];
+    ++queue_docs[q];
+    queue_tokens[q] += docs[i].tokens;
+    for (const auto& [term, count] : docs[i].counts) sums[term * nq + q] += count;
+    ++result->learned;
+  }
+  std::vector<uint64_t> keys;
+  keys.reserve(sums.size());
+  for (const auto& kv : sums) keys.push_back(kv.first);
+  // Key order: term text, then queue name.
+  std::sort(keys.begin(), keys.end(), [&](uint64_t a, uint64_t b) {
+    const std::string& ta = batch.term(static_cast<uint32_t>(a / nq));
+    const std::string& tb = batch.term(static_cast<uint32_t>(b / nq));
+    if (ta != tb) return ta < tb;
+    return queue_names[a % nq] < queue_names[b % nq];
+  });
+
+  {
+    sql::Statement find(db, "SELECT id FROM terms WHERE text = ?");
+    sql::Statement add(db, "INSERT INTO terms(text) VALUES(?)");
+    sql::Statement upsert(db,
+                          "INSERT INTO counts(term_id, queue_id, n) VALUES(?, ?, ?) "
+                          "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n");
+    if (!find.ok() || !add.ok() || !upsert.ok()) {
+      return Status::IoError(path_ + ": " + find.error() + add.error() + upsert.error());
+    }
+    int64_t last_batch_term = -1, term_id = 0;
+    for (uint64_t key : keys) {
+      auto batch_term = static_cast<int64_t>(key / nq);
+      if (batch_term != last_batch_term) {
+        const std::string& text = batch.term(static_cast<uint32_t>(batch_term));
+        find.Bind(1, text);
+        if (find.Step() == SQLITE_ROW) {
+          term_id = find.ColumnInt(0);
+        } else {
+          Status s = add.Bind(1, text).Run();
+          if (!s.ok()) return fail(s);
+          term_id = sqlite3_last_insert_rowid(db);
+          ++result->new_terms;
+        }
+        find.Reset();
+        last_batch_term = batch_term;
+      }
+      Status s = upsert.Bind(1, term_id).Bind(2, queue_ids[key % nq]).Bind(3, sums[key]).Run();
+      if (!s.ok()) return fail(s);
+    }
+  }
+
+  {
+    sql::Statement update(db,
+                          "UPDATE queues SET documents = documents + ?, tokens = tokens + ? "
+                          "WHERE id = ?");
+    if (!update.ok()) return Status::IoError(path_ + ": " + update.error());
+    for (size_t q = 0; q < nq; ++q) {
+      if (queue_docs[q] == 0) continue;
+      Status s = update.Bind(1, queue_docs[q]).Bind(2, queue_tokens[q]).Bind(3, queue_ids[q]).Run();
+      if (!s.ok()) return fail(s);
+    }
+  }
+
+  {
+    sql::Statement add(db,
+                       "INSERT INTO ledger(digest, queue_id, source, learned_at, tokens, "
+                       "term_counts) VALUES(?, ?, ?, ?, ?, ?)");
+    if (!add.ok()) return Status::IoError(path_ + ": " + add.error());
+    std::vector<TermCount> own;
+    for (size_t i = 0; i < docs.size(); ++i) {
+      if (result->outcomes[i] != LearnOutcome::kLearned) continue;
+      const auto& d = docs[i];
+      own.clear();
+      for (const auto& [term, count] : d.counts) own.emplace_back(batch.term(term), count);
+      std::sort(own.begin(), own.end());
+      Status s = add.Bind(1, d.digest)
+                     .Bind(2, queue_ids[queue_index[d.queue]])
+                     .Bind(3, d.source)
+                     .Bind(4, now)
+                     .Bind(5, d.tokens)
+                     .BindBlob(6, EncodeTermCounts(own))
+                     .Run();
+      if (!s.ok()) return fail(s);
+    }
+  }
+  // Queues created for documents that all turned out to be known stay out.
+  {
+    sql::Statement drop(db, "DELETE FROM queues WHERE id = ? AND documents = 0");
+    for (size_t q = 0; q < nq; ++q) {
+      if (queue_docs[q] != 0) continue;
+      Status s = drop.Bind(1, queue_ids[q]).Run();
+      if (!s.ok()) return fail(s);
+    }
+  }
+  Status s = tx.Commit();
+  if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
+  return Status::Ok();
+}
+
+Status Store::SetPrior(const std::string& queue, std::optional<double> prior) {
+  sql::Transaction tx(db_.get());
+  if (!tx.status().ok()) return tx.status();
+  sql::Statement find(db_.get(), "SELECT id FROM queues WHERE name = ?");
+  find.Bind(1, queue);
+  if (find.Step() != SQLITE_ROW) {
+    return Status::NotFound("queue '" + queue + "' does not exist in " + path_);
+  }
+  int64_t id = find.ColumnInt(0);
+  if (prior) {
+    sql::Statement sum(db_.get(),
+                       "SELECT COALESCE(SUM(set_prior), 0) FROM queues WHERE id != ?");
+    sum.Bind(1, id);
+    if (sum.Step() != SQLITE_ROW) return sql::ErrorStatus(db_.get(), path_);
+    double others = sum.ColumnDouble(0);
+    if (others + *prior > 1.0 + 1e-12) {
+      return Status::InvalidArgument("priors set by hand would sum to " +
+                                     FormatDouble(others + *prior) + ", more than 1");
+    }
+  }
+  sql::Statement set(db_.get(), "UPDATE queues SET set_prior = ? WHERE id = ?");
+  if (prior) {
+    set.Bind(1, *prior);
+  } else {
+    set.BindNull(1);
+  }
+  Status s = set.Bind(2, id).Run();
+  if (!s.ok()) return s;
+  return tx.Commit();
+}
+
+}  // namespace chute

@@ -1,0 +1,29 @@
+// The compact encoding of one document's term counts, stored in the ledger
+// as one blob per document.
+//
+// Terms are sorted by their bytes and front-coded: each entry is
+//   varint(bytes shared with the previous term) varint(suffix length)
+//   suffix bytes  varint(count)
+// with LEB128 varints (common practice; as in Protocol Buffers and SQLite4).
+#ifndef CHUTE_STORE_TERM_COUNTS_CODEC_H_
+#define CHUTE_STORE_TERM_COUNTS_CODEC_H_
+
+#include <cstdint>
+#include <string>
+#include <string_view>
+#include <utility>
+#include <vector>
+
+namespace chute {
+
+using TermCount = std::pair<std::string, int64_t>;
+
+// REQUIRES: terms sorted by bytes and distinct; counts > 0.
+std::string EncodeTermCounts(const std::vector<TermCount>& terms);
+
+// Returns false when the blob is malformed.
+bool DecodeTermCounts(std::string_view blob, std::vector<TermCount>* terms);
+
+}  // namespace chute
+
+#endif  // CHUTE_STORE_TERM_COUNTS_CODEC_H_
