@@ -395,6 +395,25 @@ TEST_F(StoreTest, LearnInSeveralBatchesAddsUp) {
   expected_.Check(store.get());
 }
 
+TEST_F(StoreTest, VocabularySizeIsTheNumberOfDistinctTerms) {
+  // |V| enters every θ(q, w): it must count each term once, whatever the
+  // number of queues that use it.
+  std::unique_ptr<Store> store = CreateStore();
+  ASSERT_NE(store, nullptr);
+  int64_t size = -1;
+  ASSERT_TRUE(store->VocabularySize(&size).ok());
+  EXPECT_EQ(size, 0);
+  LearnAll(store.get(), FirstBatch());
+  std::set<std::string> vocabulary;
+  for (const Doc& d : FirstBatch())
+    vocabulary.insert(d.terms.begin(), d.terms.end());
+  ASSERT_TRUE(store->VocabularySize(&size).ok());
+  EXPECT_EQ(size, static_cast<int64_t>(vocabulary.size()));
+  ModelCounts mc;
+  ASSERT_TRUE(store->LoadModelCounts(&mc).ok());
+  EXPECT_EQ(size, static_cast<int64_t>(mc.terms.size()));
+}
+
 TEST_F(StoreTest, LedgerRecordsEachDocument) {
   std::unique_ptr<Store> store = CreateStore();
   ASSERT_NE(store, nullptr);
