@@ -1,5 +1,6 @@
 #include "store/queue_name.h"
 
+#include <unicode/uchar.h>
 #include <unicode/utf8.h>
 
 #include <string>
@@ -61,6 +62,13 @@ Status ValidateQueueName(std::string_view name) {
     if (c < 0) return bad("not valid UTF-8");
     if (c == '/' || c == '\\') return bad("may not contain '/' or '\\'");
     if (c < 0x20 || (c >= 0x7F && c <= 0x9F)) return bad("may not contain control characters");
+    // Line and paragraph separators break lines; format characters (bidi
+    // overrides and isolates, zero-width joiners) make a name look like
+    // another one in a folder listing.
+    const int8_t type = u_charType(c);
+    if (type == U_LINE_SEPARATOR || type == U_PARAGRAPH_SEPARATOR || type == U_FORMAT_CHAR) {
+      return bad("may not contain line separators or invisible format characters");
+    }
   }
   return Status::Ok();
 }

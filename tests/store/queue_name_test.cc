@@ -108,6 +108,12 @@ TEST(QueueNameTest, AcceptsAndRefusesNames) {
       // Invalid for its '/', with a line separator that the message must
       // not show raw.
       {"a/\u2028b", false},
+      // Separators and invisible format characters (categories Zl, Zp, Cf).
+      {"a\u2028b", false},
+      {"a\u2029b", false},
+      {"per\u202Emits", false},  // RIGHT-TO-LEFT OVERRIDE
+      {"per\u2066mits", false},  // LEFT-TO-RIGHT ISOLATE
+      {"per\u200Bmits", false},  // ZERO WIDTH SPACE
   };
   for (const Case& c : cases) {
     SCOPED_TRACE(Escaped(c.name));

@@ -166,9 +166,12 @@ TEST(TokenizerTest, NumbersFoldToOneTerm) {
       // ICU gives a word that begins with digits and ends with letters the
       // letter status, so it stays a word ...
       {"4.5kg 2nd", kFold, {"4.5kg", "2nd"}},
-      // ... and one of letters then digits the number status, so it folds
-      // (observed with ICU 72; the Tokenizer follows ICU's rule status).
-      {"v2 A1", kFold, {"<num>", "<num>"}},
+      // ... and one of letters then digits the number status (observed
+      // with ICU 72); holding a letter, it is a name, not a number, and is
+      // never folded.
+      {"v2 A1 Ａ４", kFold, {"v2", "a1", "a4"}},
+      // Folded numbers are never dropped by the length limits.
+      {"7 at 12", {.min_length = 3, .numbers = NumberMode::kFold}, {"<num>", "<num>"}},
   });
 }
 
