@@ -70,6 +70,10 @@ def list_reuters():
 def reuters_text(relative_path):
     """The <TITLE> and <BODY> text of one Reuters-21578 XML file."""
     path = os.path.join(REUTERS_ROOT, relative_path)
+    if not os.path.isfile(path):
+        raise CorpusError(f"{path} is listed in the folds file but missing "
+                          "on this machine: install Debian's r-cran-tm "
+                          "package (the folds were made from 0.7-11)")
     try:
         root = lxml.etree.parse(path).getroot()
     except (OSError, lxml.etree.XMLSyntaxError) as e:

@@ -174,6 +174,15 @@ std::vector<bool> ChuteBreaks(Segmenter* segmenter,
   segmenter->Split(text, &segments);
   std::vector<bool> breaks(code_points.size() + 1, false);
   breaks[0] = true;  // the start of text (WB1), always
+  // Split's contract: the segments cover the text, in order, without gaps.
+  int32_t covered = 0;
+  for (const Segment& seg : segments) {
+    EXPECT_EQ(seg.begin, covered) << "segments leave a gap or overlap";
+    EXPECT_LT(seg.begin, seg.end) << "empty segment";
+    covered = seg.end;
+  }
+  EXPECT_EQ(covered, static_cast<int32_t>(text.size()))
+      << "segments do not reach the end of the text";
   for (const Segment& seg : segments) {
     auto it = offset_of_position.find(seg.end);
     // A boundary inside a surrogate pair cannot be expressed in the file's
