@@ -18,6 +18,7 @@
 #include <gtest/gtest.h>
 
 #include <cstdint>
+#include <cstdio>
 #include <cstdlib>
 #include <fstream>
 #include <map>
@@ -186,7 +187,7 @@ std::vector<bool> ChuteBreaks(Segmenter* segmenter,
   for (const Segment& seg : segments) {
     auto it = offset_of_position.find(seg.end);
     // A boundary inside a surrogate pair cannot be expressed in the file's
-    // terms; record it as a boundary at no position, which fails below.
+    // terms (it splits a code point): a failure of its own.
     if (it == offset_of_position.end()) {
       ADD_FAILURE() << "segment ends inside a surrogate pair at UTF-16 offset "
                     << seg.end;
