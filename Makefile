@@ -49,7 +49,8 @@ configure:
 build: deps configure
 	cmake --build $(BUILD_DIR) -j $(JOBS)
 
-demo: build
+demo: deps configure
+	cmake --build $(BUILD_DIR) -j $(JOBS) --target chute
 	@corpora/demo.sh $(BUILD_DIR)/chute
 
 test: test-deps configure
