@@ -83,7 +83,8 @@ class Model {
   // The row of a term, or -1 when the model does not know it.
   int64_t FindTerm(std::string_view term) const;
 
-  // Counts terms into rows. Unknown terms are counted in *unknown.
+  // Counts terms into rows, in increasing row order. Unknown terms are
+  // counted in *unknown.
   void ToRows(const std::vector<std::string>& terms, DocumentRows* rows,
               int64_t* unknown) const;
 
