@@ -227,6 +227,13 @@ Status Store::ListQueues(std::vector<QueueInfo>* out) {
   return Status::Ok();
 }
 
+Status Store::VocabularySize(int64_t* out) {
+  sql::Statement st(db_.get(), "SELECT COUNT(*) FROM terms");
+  if (!st.ok() || st.Step() != SQLITE_ROW) return sql::ErrorStatus(db_.get(), path_);
+  *out = st.ColumnInt(0);
+  return Status::Ok();
+}
+
 Status Store::LoadModelCounts(ModelCounts* out) {
   *out = ModelCounts();
   // Read in one transaction so that queues and counts agree.

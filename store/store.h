@@ -77,6 +77,8 @@ class Store {
 
   // Queues ordered by name.
   Status ListQueues(std::vector<QueueInfo>* out);
+  // |V|: the number of terms with a non-zero count.
+  Status VocabularySize(int64_t* out);
   // The counts a Model is built from, queues ordered by name, terms by id.
   Status LoadModelCounts(ModelCounts* out);
   // The ledger entry of a digest; *out is empty when it is not learned.

@@ -1,0 +1,32 @@
+// How a command plugs into main(): each command file defines one Setup
+// function that adds its options to its CLI11 subcommand and returns the
+// function that runs it once the command line is parsed.
+#ifndef CHUTE_CLI_COMMAND_H_
+#define CHUTE_CLI_COMMAND_H_
+
+#include <functional>
+
+namespace CLI {
+class App;
+}
+
+namespace chute {
+
+using CommandRun = std::function<int()>;  // returns an ExitCode
+using CommandSetup = CommandRun (*)(CLI::App* command);
+
+struct Command {
+  const char* name;
+  const char* summary;
+  CommandSetup setup;
+};
+
+CommandRun SetupInit(CLI::App* command);
+CommandRun SetupLearn(CLI::App* command);
+CommandRun SetupRoute(CLI::App* command);
+CommandRun SetupQueues(CLI::App* command);
+CommandRun SetupTermsOf(CLI::App* command);
+
+}  // namespace chute
+
+#endif  // CHUTE_CLI_COMMAND_H_

@@ -1,0 +1,80 @@
+// chute init: creates a store with the model settings fixed for its life.
+#include <CLI/CLI.hpp>
+
+#include <map>
+
+#include "cli/command.h"
+#include "cli/common_options.h"
+#include "cli/exit_code.h"
+#include "cli/format/number.h"
+
+namespace chute {
+
+namespace {
+
+struct InitOptions {
+  std::string db;
+  StoreSettings settings;
+};
+
+int RunInit(const InitOptions& o) {
+  if (o.settings.tokenizer.min_length > o.settings.tokenizer.max_length) {
+    Report("init", "--min-length is greater than --max-length");
+    return kExitUsage;
+  }
+  std::unique_ptr<Store> store;
+  Status s = Store::Create(o.db, o.settings, &store);
+  if (!s.ok()) {
+    Report("init", s.message());
+    return kExitFailed;
+  }
+  const StoreSettings& st = o.settings;
+  Print("created " + o.db + " (alpha " + FormatShortest(st.model.alpha) + ", prior " +
+        (st.model.prior == PriorMode::kUniform ? "uniform" : "learned") + ", bigrams " +
+        (st.tokenizer.bigrams ? "on" : "off") + ", numbers " +
+        (st.tokenizer.numbers == NumberMode::kFold ? "fold" : "keep") + ", terms of " +
+        std::to_string(st.tokenizer.min_length) + " to " +
+        std::to_string(st.tokenizer.max_length) + " characters)\n");
+  return kExitDone;
+}
+
+}  // namespace
+
+CommandRun SetupInit(CLI::App* cmd) {
+  auto o = std::make_shared<InitOptions>();
+  AddDbOption(cmd, &o->db);
+  StoreSettings& st = o->settings;
+  cmd->add_option("--alpha", st.model.alpha,
+                  "smoothing added to every count: 1 is Laplace, 0 < alpha < 1 Lidstone (default 1)")
+      ->check(CLI::Range(1e-12, 1e12));
+  static const std::map<std::string, PriorMode> kPriors = {
+      {"learned", PriorMode::kLearned}, {"uniform", PriorMode::kUniform}};
+  cmd->add_option("--prior", st.model.prior,
+                  "prior of queues without a hand-set prior: learned (share of documents, "
+                  "default) or uniform")
+      ->transform(CLI::CheckedTransformer(kPriors));
+  static const std::map<std::string, bool> kOnOff = {{"on", true}, {"off", false}};
+  cmd->add_option("--bigrams", st.tokenizer.bigrams,
+                  "also count pairs of adjacent words: on or off (default off)")
+      ->transform(CLI::CheckedTransformer(kOnOff));
+  static const std::map<std::string, NumberMode> kNumbers = {
+      {"keep", NumberMode::kKeep}, {"fold", NumberMode::kFold}};
+  cmd->add_option("--numbers", st.tokenizer.numbers,
+                  "keep every number as a term of its own, or fold all numbers into one "
+                  "term <num> (default keep)")
+      ->transform(CLI::CheckedTransformer(kNumbers));
+  cmd->add_option("--min-length", st.tokenizer.min_length,
+                  "drop terms shorter than this many characters (default 1)")
+      ->check(CLI::Range(1, 1000));
+  cmd->add_option("--max-length", st.tokenizer.max_length,
+                  "drop terms longer than this many characters (default 64)")
+      ->check(CLI::Range(1, 1000));
+  cmd->footer(R"(The settings are fixed for the life of the store.
+
+Examples:
+  chute init --db harbour.db
+  chute init --db harbour.db --alpha 0.5 --bigrams on --numbers fold)");
+  return [o] { return RunInit(*o); };
+}
+
+}  // namespace chute

@@ -1,0 +1,185 @@
+// chute queues: the queues with their documents, terms and priors, and the
+// store's settings; sets or clears a queue's prior by hand.
+#include <CLI/CLI.hpp>
+
+#include <cmath>
+
+#include "classify/prior.h"
+#include "cli/command.h"
+#include "cli/common_options.h"
+#include "cli/exit_code.h"
+#include "cli/format/csv_writer.h"
+#include "cli/format/json_writer.h"
+#include "cli/format/number.h"
+#include "cli/format/table_writer.h"
+
+namespace chute {
+
+namespace {
+
+struct QueuesOptions {
+  std::string db;
+  OutputFormat format = OutputFormat::kTable;
+  std::vector<std::string> set_prior;  // queue, value
+  std::string clear_prior;
+  bool settings = false;
+};
+
+std::vector<std::pair<std::string, std::string>> SettingsRows(const StoreSettings& s,
+                                                              int64_t vocabulary) {
+  return {
+      {"alpha", FormatShortest(s.model.alpha)},
+      {"prior", s.model.prior == PriorMode::kUniform ? "uniform" : "learned"},
+      {"bigrams", s.tokenizer.bigrams ? "on" : "off"},
+      {"numbers", s.tokenizer.numbers == NumberMode::kFold ? "fold" : "keep"},
+      {"min_length", std::to_string(s.tokenizer.min_length)},
+      {"max_length", std::to_string(s.tokenizer.max_length)},
+      {"vocabulary", std::to_string(vocabulary)},
+  };
+}
+
+int PrintSettings(const StoreSettings& s, int64_t vocabulary, OutputFormat format) {
+  auto rows = SettingsRows(s, vocabulary);
+  if (format == OutputFormat::kJsonl) {
+    JsonWriter w;
+    w.BeginObject();
+    w.Key("alpha").Number(s.model.alpha);
+    w.Key("prior").String(rows[1].second);
+    w.Key("bigrams").Bool(s.tokenizer.bigrams);
+    w.Key("numbers").String(rows[3].second);
+    w.Key("min_length").Int(s.tokenizer.min_length);
+    w.Key("max_length").Int(s.tokenizer.max_length);
+    w.Key("vocabulary").Int(vocabulary);
+    Print(w.EndObject().Take() + "\n");
+  } else if (format == OutputFormat::kCsv) {
+    Print(CsvRecordLine({"setting", "value"}));
+    for (const auto& [k, v] : rows) Print(CsvRecordLine({k, v}));
+  } else {
+    TableWriter t({{"setting"}, {"value"}});
+    for (const auto& [k, v] : rows) t.AddRow({k, v});
+    Print(t.Render());
+  }
+  return kExitDone;
+}
+
+int RunQueues(const QueuesOptions& o) {
+  std::unique_ptr<Store> store;
+  if (!OpenStoreOrReport("queues", o.db, &store)) return kExitFailed;
+  if (!o.set_prior.empty()) {
+    const std::string& queue = o.set_prior[0];
+    double p = 0;
+    try {
+      size_t used = 0;
+      p = std::stod(o.set_prior[1], &used);
+      if (used != o.set_prior[1].size()) throw std::invalid_argument("trailing");
+    } catch (const std::exception&) {
+      Report("queues", "--set-prior " + queue + ": '" + o.set_prior[1] + "' is not a number");
+      return kExitUsage;
+    }
+    if (!(p > 0 && p < 1)) {
+      Report("queues", "--set-prior " + queue + ": a prior must lie strictly between 0 and 1");
+      return kExitUsage;
+    }
+    if (Status s = store->SetPrior(queue, p); !s.ok()) {
+      Report("queues", s.message());
+      return kExitFailed;
+    }
+  }
+  if (!o.clear_prior.empty()) {
+    if (Status s = store->SetPrior(o.clear_prior, std::nullopt); !s.ok()) {
+      Report("queues", s.message());
+      return kExitFailed;
+    }
+  }
+  int64_t vocabulary = 0;
+  std::vector<QueueInfo> queues;
+  Status s = store->VocabularySize(&vocabulary);
+  if (s.ok()) s = store->ListQueues(&queues);
+  if (!s.ok()) {
+    Report("queues", s.message());
+    return kExitFailed;
+  }
+  if (o.settings) return PrintSettings(store->settings(), vocabulary, o.format);
+
+  // The prior each queue routes with (queues without documents have none).
+  std::vector<QueueCounts> routed;
+  for (const QueueInfo& q : queues) {
+    if (q.documents > 0) routed.push_back({q.name, q.documents, q.tokens, q.set_prior});
+  }
+  std::vector<double> priors = ComputePriors(routed, store->settings().model.prior);
+  auto prior_of = [&](const std::string& name) -> std::optional<double> {
+    for (size_t i = 0; i < routed.size(); ++i) {
+      if (routed[i].name == name) return priors[i];
+    }
+    return std::nullopt;
+  };
+  const std::string mode =
+      store->settings().model.prior == PriorMode::kUniform ? "uniform" : "learned";
+
+  if (o.format == OutputFormat::kJsonl) {
+    JsonWriter w;
+    for (const QueueInfo& q : queues) {
+      auto p = prior_of(q.name);
+      w.BeginObject().Key("queue").String(q.name);
+      w.Key("documents").Int(q.documents).Key("tokens").Int(q.tokens);
+      w.Key("distinct_terms").Int(q.distinct_terms).Key("prior");
+      p ? w.Number(*p) : w.Null();
+      w.Key("prior_source").String(q.set_prior ? "set" : mode);
+      Print(w.EndObject().Take() + "\n");
+    }
+    return kExitDone;
+  }
+  if (o.format == OutputFormat::kCsv) {
+    Print(CsvRecordLine({"queue", "documents", "tokens", "distinct_terms", "prior", "prior_source"}));
+    for (const QueueInfo& q : queues) {
+      auto p = prior_of(q.name);
+      Print(CsvRecordLine({q.name, std::to_string(q.documents), std::to_string(q.tokens),
+                           std::to_string(q.distinct_terms), p ? FormatShortest(*p) : "",
+                           q.set_prior ? "set" : mode}));
+    }
+    return kExitDone;
+  }
+  const StoreSettings& st = store->settings();
+  Print("store " + store->path() + ": alpha " + FormatShortest(st.model.alpha) + ", prior " +
+        mode + ", bigrams " + (st.tokenizer.bigrams ? "on" : "off") + ", numbers " +
+        (st.tokenizer.numbers == NumberMode::kFold ? "fold" : "keep") + ", term length " +
+        std::to_string(st.tokenizer.min_length) + "-" +
+        std::to_string(st.tokenizer.max_length) + "; vocabulary " +
+        std::to_string(vocabulary) + " terms\n\n");
+  TableWriter t({{"queue"},
+                 {"documents", TableWriter::Align::kRight},
+                 {"tokens", TableWriter::Align::kRight},
+                 {"distinct terms", TableWriter::Align::kRight},
+                 {"prior", TableWriter::Align::kRight},
+                 {"prior from"}});
+  for (const QueueInfo& q : queues) {
+    auto p = prior_of(q.name);
+    t.AddRow({q.name, std::to_string(q.documents), std::to_string(q.tokens),
+              std::to_string(q.distinct_terms), p ? FormatFixed(*p, 4) : "-",
+              q.set_prior ? "set by hand" : mode});
+  }
+  Print(t.Render());
+  return kExitDone;
+}
+
+}  // namespace
+
+CommandRun SetupQueues(CLI::App* cmd) {
+  auto o = std::make_shared<QueuesOptions>();
+  AddDbOption(cmd, &o->db);
+  AddFormatOption(cmd, &o->format);
+  cmd->add_option("--set-prior", o->set_prior,
+                  "QUEUE P: set the queue's prior to P (0 < P < 1); queues without one share the rest")
+      ->expected(2)
+      ->type_name("QUEUE P");
+  cmd->add_option("--clear-prior", o->clear_prior, "QUEUE: the queue's prior is learned or uniform again");
+  cmd->add_flag("--settings", o->settings, "print the store's settings instead of the queues");
+  cmd->footer(R"(Examples:
+  chute queues
+  chute queues --format jsonl
+  chute queues --set-prior environment 0.05
+  chute queues --settings)");
+  return [o] { return RunQueues(*o); };
+}
+
+}  // namespace chute

@@ -1,0 +1,155 @@
+// chute route: the queue of each document, with its posterior.
+#include <CLI/CLI.hpp>
+
+#include "classify/model.h"
+#include "cli/command.h"
+#include "cli/common_options.h"
+#include "cli/exit_code.h"
+#include "cli/format/csv_writer.h"
+#include "cli/format/json_writer.h"
+#include "cli/format/number.h"
+#include "cli/format/progress.h"
+#include "cli/format/table_writer.h"
+#include "cli/read/document_reader.h"
+#include "cli/read/input_walker.h"
+#include "tokenize/tokenizer.h"
+
+namespace chute {
+
+namespace {
+
+struct RouteOptions {
+  std::string db;
+  std::vector<std::string> inputs;
+  OutputFormat format = OutputFormat::kTable;
+  int top = 3;
+  int64_t max_bytes = kDefaultMaxBytes;
+};
+
+std::string JsonLine(const std::string& file, const Model& model, const Decision& d, int top) {
+  JsonWriter w;
+  const QueuePosterior& best = d.ranked.front();
+  w.BeginObject();
+  w.Key("file").String(file);
+  w.Key("queue").String(model.queues()[best.queue].name);
+  w.Key("confidence").Number(best.posterior);
+  w.Key("no_terms").Bool(d.no_terms());
+  w.Key("top").BeginArray();
+  for (size_t i = 0; i < d.ranked.size() && i < static_cast<size_t>(top); ++i) {
+    const QueuePosterior& p = d.ranked[i];
+    w.BeginObject()
+        .Key("queue").String(model.queues()[p.queue].name)
+        .Key("posterior").Number(p.posterior)
+        .Key("log_posterior").Number(p.log_posterior)
+        .EndObject();
+  }
+  w.EndArray().EndObject();
+  return w.Take() + "\n";
+}
+
+int RunRoute(const RouteOptions& o) {
+  if (o.inputs.empty()) {
+    Report("route", "nothing to route: name files, folders, or - for standard input");
+    return kExitUsage;
+  }
+  std::unique_ptr<Store> store;
+  if (!OpenStoreOrReport("route", o.db, &store)) return kExitFailed;
+  ModelCounts counts;
+  if (Status s = store->LoadModelCounts(&counts); !s.ok()) {
+    Report("route", s.message());
+    return kExitFailed;
+  }
+  const Model model = Model::Build(counts, store->settings().model);
+  counts = ModelCounts();  // the snapshot holds what routing needs
+  if (model.queue_count() == 0) {
+    Report("route", o.db + ": has learned no documents yet; run 'chute learn' first");
+    return kExitFailed;
+  }
+
+  std::vector<InputFile> files;
+  std::vector<WalkProblem> problems;
+  WalkInputs(o.inputs, &files, &problems);
+  int64_t refused = 0, routed = 0;
+  for (const WalkProblem& p : problems) {
+    Report("route", p.path + ": " + p.reason);
+    ++refused;
+  }
+
+  Tokenizer tokenizer(store->settings().tokenizer);
+  ReadOptions read_options{o.max_bytes};
+  std::vector<std::string> terms;
+  DocumentRows rows;
+  Document doc;
+  TableWriter table({{"file"},
+                     {"queue"},
+                     {"confidence", TableWriter::Align::kRight},
+                     {"runner-up"},
+                     {"its posterior", TableWriter::Align::kRight},
+                     {"note"}});
+  if (o.format == OutputFormat::kCsv) {
+    Print(CsvRecordLine({"file", "queue", "confidence", "runner_up", "runner_up_posterior"}));
+  }
+  Progress progress("route", files.size());
+  for (const InputFile& f : files) {
+    progress.Tick();
+    if (Status r = ReadDocument(f.path, read_options, &doc); !r.ok()) {
+      Report("route", r.message());
+      ++refused;
+      continue;
+    }
+    if (doc.replaced > 0) {
+      Report("route", f.path + ": " + std::to_string(doc.replaced) +
+                          " invalid UTF-8 sequences replaced by U+FFFD");
+    }
+    tokenizer.Tokenize(doc.text, &terms);
+    int64_t unknown = 0;
+    model.ToRows(terms, &rows, &unknown);
+    const Decision d = model.Decide(rows, unknown);
+    ++routed;
+    const QueuePosterior& best = d.ranked.front();
+    const QueuePosterior* second = d.ranked.size() > 1 ? &d.ranked[1] : nullptr;
+    const std::string& queue = model.queues()[best.queue].name;
+    switch (o.format) {
+      case OutputFormat::kJsonl:
+        Print(JsonLine(f.path, model, d, o.top));
+        break;
+      case OutputFormat::kCsv:
+        Print(CsvRecordLine({f.path, queue, FormatShortest(best.posterior),
+                             second ? model.queues()[second->queue].name : "",
+                             second ? FormatShortest(second->posterior) : ""}));
+        break;
+      case OutputFormat::kTable:
+        table.AddRow({f.path, queue, FormatFixed(best.posterior, 3),
+                      second ? model.queues()[second->queue].name : "",
+                      second ? FormatFixed(second->posterior, 3) : "",
+                      d.no_terms() ? "no known terms: prior only" : ""});
+        break;
+    }
+  }
+  if (o.format == OutputFormat::kTable) Print(table.Render());
+  if (refused == 0) return kExitDone;
+  return routed > 0 ? kExitSomeRefused : kExitFailed;
+}
+
+}  // namespace
+
+CommandRun SetupRoute(CLI::App* cmd) {
+  auto o = std::make_shared<RouteOptions>();
+  AddDbOption(cmd, &o->db);
+  cmd->add_option("inputs", o->inputs, "files, folders (walked recursively), or - for standard input");
+  AddFormatOption(cmd, &o->format);
+  cmd->add_option("--top", o->top, "queues listed per document in jsonl (default 3)")
+      ->check(CLI::PositiveNumber);
+  AddMaxBytesOption(cmd, &o->max_bytes);
+  cmd->footer(R"(Confidence is the posterior probability of the chosen queue. Naive Bayes
+is often over-confident: have a person review documents below a threshold
+you have measured (see README, "Cautions").
+
+Examples:
+  chute route corpora/port-authority/inbox/
+  chute route letter.txt --format jsonl --top 3
+  cat scan.txt | chute route - --format csv)");
+  return [o] { return RunRoute(*o); };
+}
+
+}  // namespace chute

@@ -1,0 +1,82 @@
+#include "cli/common_options.h"
+
+#include <CLI/CLI.hpp>
+
+#include <cstdio>
+#include <cstdlib>
+#include <ctime>
+#include <filesystem>
+#include <map>
+
+#include "cli/read/document_reader.h"
+
+namespace chute {
+
+std::string DefaultDbPath() {
+  const char* env = std::getenv("CHUTE_DB");
+  return env != nullptr && *env != '\0' ? env : "chute.db";
+}
+
+void AddDbOption(CLI::App* command, std::string* db) {
+  *db = DefaultDbPath();
+  command->add_option("--db", *db, "the store (default: $CHUTE_DB, else ./chute.db)");
+}
+
+void AddFormatOption(CLI::App* command, OutputFormat* format) {
+  *format = OutputFormat::kTable;
+  static const std::map<std::string, OutputFormat> kNames = {
+      {"table", OutputFormat::kTable},
+      {"jsonl", OutputFormat::kJsonl},
+      {"csv", OutputFormat::kCsv}};
+  command->add_option("--format", *format, "table (default), jsonl or csv")
+      ->transform(CLI::CheckedTransformer(kNames, CLI::ignore_case));
+}
+
+void AddMaxBytesOption(CLI::App* command, int64_t* max_bytes) {
+  *max_bytes = kDefaultMaxBytes;
+  command
+      ->add_option("--max-bytes", *max_bytes,
+                   "refuse documents larger than this many bytes (default 33554432 = 32 MiB)")
+      ->check(CLI::PositiveNumber);
+}
+
+bool OpenStoreOrReport(std::string_view command, const std::string& db,
+                       std::unique_ptr<Store>* store) {
+  Status s = Store::Open(db, store);
+  if (!s.ok()) Report(command, s.message());
+  return s.ok();
+}
+
+void Report(std::string_view command, std::string_view message) {
+  std::string line = "chute ";
+  line += command;
+  line += ": ";
+  for (char c : message) line += (c == '\n' || c == '\r') ? ' ' : c;
+  line += '\n';
+  std::fwrite(line.data(), 1, line.size(), stderr);
+}
+
+std::string ReasonOf(const Status& s, const std::string& path) {
+  const std::string& m = s.message();
+  return m.compare(0, path.size() + 2, path + ": ") == 0 ? m.substr(path.size() + 2) : m;
+}
+
+void Print(std::string_view text) { std::fwrite(text.data(), 1, text.size(), stdout); }
+
+std::string SourcePath(const std::string& path) {
+  if (path == "-") return path;
+  std::error_code ec;
+  auto abs = std::filesystem::absolute(path, ec);
+  return ec ? path : abs.lexically_normal().string();
+}
+
+std::string NowRfc3339() {
+  std::time_t t = std::time(nullptr);
+  std::tm tm;
+  gmtime_r(&t, &tm);
+  char buf[32];
+  std::strftime(buf, sizeof buf, "%Y-%m-%dT%H:%M:%SZ", &tm);
+  return buf;
+}
+
+}  // namespace chute

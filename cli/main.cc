@@ -1,0 +1,99 @@
+// chute: routes documents into queues with multinomial naive Bayes.
+// main() only picks the command from one table, runs it, and maps the
+// outcome to an exit status (cli/exit_code.h).
+#include <CLI/CLI.hpp>
+
+#include <cstdio>
+#include <exception>
+#include <string>
+
+#include "cli/command.h"
+#include "cli/exit_code.h"
+
+namespace {
+
+constexpr chute::Command kCommands[] = {
+    {"init", "create a store; its model settings are fixed for its life", chute::SetupInit},
+    {"learn", "learn labelled documents (a folder tree, a CSV manifest, or files)",
+     chute::SetupLearn},
+    {"route", "choose the queue of each document, with its confidence", chute::SetupRoute},
+    {"queues", "list the queues, their documents, terms and priors; set priors",
+     chute::SetupQueues},
+    {"terms-of", "print the terms chute counts for a document", chute::SetupTermsOf},
+};
+
+// Levenshtein distance, for "did you mean" (common practice).
+size_t EditDistance(const std::string& a, const std::string& b) {
+  std::vector<size_t> row(b.size() + 1);
+  for (size_t j = 0; j <= b.size(); ++j) row[j] = j;
+  for (size_t i = 1; i <= a.size(); ++i) {
+    size_t diag = row[0];
+    row[0] = i;
+    for (size_t j = 1; j <= b.size(); ++j) {
+      size_t up = row[j];
+      row[j] = std::min({row[j] + 1, row[j - 1] + 1, diag + (a[i - 1] != b[j - 1])});
+      diag = up;
+    }
+  }
+  return row[b.size()];
+}
+
+void SuggestCommand(int argc, char** argv) {
+  for (int i = 1; i < argc; ++i) {
+    std::string word = argv[i];
+    if (word.empty() || word[0] == '-') continue;
+    for (const auto& c : kCommands) {
+      if (EditDistance(word, c.name) <= 2) {
+        std::fprintf(stderr, "chute: did you mean '%s'?\n", c.name);
+        return;
+      }
+    }
+    return;
+  }
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+  CLI::App app{"chute routes incoming documents into queues with a multinomial naive Bayes\n"
+               "model learned from labelled examples.",
+               "chute"};
+  app.require_subcommand(1, 1);
+  app.set_version_flag("--version", std::string(CHUTE_VERSION));
+  app.footer(R"(Run 'chute <command> --help' for a command's options and examples.
+
+Start here:
+  chute init --db harbour.db
+  chute learn --db harbour.db --tree corpora/port-authority/labelled/
+  chute route --db harbour.db corpora/port-authority/inbox/
+
+Exit status: 0 done; 1 failed, nothing changed; 2 usage error;
+3 done, but some documents were refused (each reported on stderr).)");
+  std::vector<std::pair<CLI::App*, chute::CommandRun>> runs;
+  for (const auto& c : kCommands) {
+    CLI::App* sub = app.add_subcommand(c.name, c.summary);
+    runs.emplace_back(sub, c.setup(sub));
+  }
+  try {
+    app.parse(argc, argv);
+  } catch (const CLI::CallForHelp& e) {
+    return app.exit(e);
+  } catch (const CLI::CallForAllHelp& e) {
+    return app.exit(e);
+  } catch (const CLI::CallForVersion& e) {
+    return app.exit(e);
+  } catch (const CLI::ParseError& e) {
+    app.exit(e);
+    if (app.get_subcommands().empty()) SuggestCommand(argc, argv);
+    return chute::kExitUsage;
+  }
+  try {
+    for (auto& [sub, run] : runs) {
+      if (sub->parsed()) return run();
+    }
+  } catch (const std::exception& e) {
+    std::fprintf(stderr, "chute: %s\n", e.what());
+    return chute::kExitFailed;
+  }
+  return chute::kExitUsage;
+}
