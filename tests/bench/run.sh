@@ -129,7 +129,7 @@ done
 echo "run.sh: chute_microbench (about a minute)" >&2
 "$micro" --benchmark_out="$out/microbench.json" --benchmark_out_format=json \
   --benchmark_min_time=0.2 --benchmark_repetitions=3 \
-  --benchmark_report_aggregates_only=true >"$work/microbench.txt"
+  --benchmark_report_aggregates_only=true >"$work/microbench.txt" 2>&1
 loads+=(end "$(load1)")
 
 "$py" "$here/summarize.py" --corpus "$corpus" --work "$work" --pairs "$pairs" \
