@@ -10,10 +10,10 @@ CMAKE_EXTRA_FLAGS ?=
 
 BUILD_PACKAGES = cmake g++ make pkg-config libicu-dev libsqlite3-dev \
                  libcli11-dev libgtest-dev libgmock-dev libssl-dev libcsv-dev \
-                 libxml2-dev python3
+                 libxml2-dev python3 nlohmann-json3-dev
 # Outside references used by the tests (see README, "How chute is checked").
 TEST_PACKAGES  = python3-sklearn unicode-data r-cran-tm groff-base manpages \
-                 manpages-dev
+                 manpages-dev python3-lxml
 BENCH_PACKAGES = libbenchmark-dev python3-sklearn time
 
 SUDO := $(shell [ "$$(id -u)" = 0 ] || echo sudo)
@@ -49,7 +49,8 @@ configure:
 build: deps configure
 	cmake --build $(BUILD_DIR) -j $(JOBS)
 
-demo: build
+demo: deps configure
+	cmake --build $(BUILD_DIR) -j $(JOBS) --target chute
 	@corpora/demo.sh $(BUILD_DIR)/chute
 
 test: test-deps configure

@@ -23,6 +23,7 @@ struct LearnOptions {
   std::string tree;
   std::string csv;
   std::string queue;
+  bool queue_given = false;  // --queue "" must reach the name check
   std::vector<std::string> inputs;
   OutputFormat format = OutputFormat::kTable;
   int64_t max_bytes = kDefaultMaxBytes;
@@ -86,16 +87,16 @@ void PrintSummary(const std::vector<Line>& lines, const LearnResult& result, Sto
 }
 
 int RunLearn(const LearnOptions& o) {
-  const int modes = !o.tree.empty() + !o.csv.empty() + !o.queue.empty();
+  const int modes = !o.tree.empty() + !o.csv.empty() + o.queue_given;
   if (modes != 1) {
     Report("learn", "name the labelled documents with exactly one of --tree, --csv or --queue");
     return kExitUsage;
   }
-  if (!o.queue.empty() && o.inputs.empty()) {
+  if (o.queue_given && o.inputs.empty()) {
     Report("learn", "--queue needs files, folders or - for standard input");
     return kExitUsage;
   }
-  if (o.queue.empty() && !o.inputs.empty()) {
+  if (!o.queue_given && !o.inputs.empty()) {
     Report("learn", "files on the command line need --queue");
     return kExitUsage;
   }
@@ -208,7 +209,8 @@ CommandRun SetupLearn(CLI::App* cmd) {
   cmd->add_option("--tree", o->tree, "a folder ROOT/<queue>/...: every file below a queue's folder");
   cmd->add_option("--csv", o->csv,
                   "a CSV file with the header path,queue (relative paths are relative to the CSV)");
-  cmd->add_option("--queue", o->queue, "learn the files named after it for this queue");
+  cmd->add_option("--queue", o->queue, "learn the files named after it for this queue")
+      ->each([o](const std::string&) { o->queue_given = true; });
   cmd->add_option("files", o->inputs, "with --queue: files, folders, or - for standard input");
   AddFormatOption(cmd, &o->format);
   AddMaxBytesOption(cmd, &o->max_bytes);

@@ -1,5 +1,6 @@
 #include "store/queue_name.h"
 
+#include <unicode/uchar.h>
 #include <unicode/utf8.h>
 
 #include <string>
@@ -8,19 +9,31 @@ namespace chute {
 
 namespace {
 
-// The name as it can be shown on one line: control bytes and backslashes as
-// \xNN escapes.
+// The name as it can be shown on one line of well-formed UTF-8: the bytes
+// of control characters (C0, DEL, C1), of U+2028 and U+2029, of ill-formed
+// sequences, and backslashes, as \xNN escapes. U+0085 (a C1 control) and
+// U+2028/U+2029 break lines like \n (Unicode Standard Annex #14, "Unicode
+// Line Breaking Algorithm": classes NL and BK; recalled from memory).
 std::string Printable(std::string_view name) {
   static const char kHex[] = "0123456789abcdef";
   std::string out;
-  for (char ch : name) {
-    auto c = static_cast<unsigned char>(ch);
-    if (c < 0x20 || c == 0x7F || c == '\\') {
-      out += "\\x";
-      out += kHex[c >> 4];
-      out += kHex[c & 15];
-    } else {
-      out += ch;
+  const auto* s = reinterpret_cast<const uint8_t*>(name.data());
+  const auto n = static_cast<int32_t>(name.size());
+  int32_t i = 0;
+  while (i < n) {
+    const int32_t start = i;
+    UChar32 c;
+    U8_NEXT(s, i, n, c);
+    const bool escape = c < 0x20 || (c >= 0x7F && c <= 0x9F) || c == '\\' ||
+                        c == 0x2028 || c == 0x2029;  // c < 0: ill-formed
+    for (int32_t k = start; k < i; ++k) {
+      if (escape) {
+        out += "\\x";
+        out += kHex[s[k] >> 4];
+        out += kHex[s[k] & 15];
+      } else {
+        out += static_cast<char>(s[k]);
+      }
     }
   }
   return out;
@@ -49,6 +62,13 @@ Status ValidateQueueName(std::string_view name) {
     if (c < 0) return bad("not valid UTF-8");
     if (c == '/' || c == '\\') return bad("may not contain '/' or '\\'");
     if (c < 0x20 || (c >= 0x7F && c <= 0x9F)) return bad("may not contain control characters");
+    // Line and paragraph separators break lines; format characters (bidi
+    // overrides and isolates, zero-width joiners) make a name look like
+    // another one in a folder listing.
+    const int8_t type = u_charType(c);
+    if (type == U_LINE_SEPARATOR || type == U_PARAGRAPH_SEPARATOR || type == U_FORMAT_CHAR) {
+      return bad("may not contain line separators or invisible format characters");
+    }
   }
   return Status::Ok();
 }

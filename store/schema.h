@@ -21,8 +21,10 @@
 //             so that it can be unlearned exactly.
 //
 // To change the schema: append a migration to kMigrations in schema.cc
-// (never edit a released one), which bumps kSchemaVersion; add the store of
-// the previous version to tests/store/migration_test.cc's cases.
+// (never edit a released one), which bumps SchemaVersion().
+// tests/store/schema_test.cc then builds a store of every older version,
+// with data, and checks that Store::Open upgrades it; extend its checks to
+// any table or column the migration adds.
 #ifndef CHUTE_STORE_SCHEMA_H_
 #define CHUTE_STORE_SCHEMA_H_
 

@@ -1,6 +1,7 @@
 #include "store/term_counts_codec.h"
 
 #include <algorithm>
+#include <limits>
 
 namespace chute {
 
@@ -19,6 +20,8 @@ bool GetVarint(std::string_view* in, uint64_t* v) {
   for (int shift = 0; shift < 64 && !in->empty(); shift += 7) {
     auto byte = static_cast<uint8_t>(in->front());
     in->remove_prefix(1);
+    // The tenth byte carries only bit 63; anything more does not fit.
+    if (shift == 63 && (byte & 0x7F) > 1) return false;
     *v |= static_cast<uint64_t>(byte & 0x7F) << shift;
     if ((byte & 0x80) == 0) return true;
   }
@@ -56,7 +59,13 @@ bool DecodeTermCounts(std::string_view blob, std::vector<TermCount>* terms) {
                                       : terms->back().first.substr(0, shared);
     term.append(blob.substr(0, suffix));
     blob.remove_prefix(suffix);
-    if (!GetVarint(&blob, &count) || count == 0) return false;
+    // Terms are sorted by bytes and distinct (std::string compares bytes as
+    // unsigned char, as the encoder's callers sort them).
+    if (!terms->empty() && term <= terms->back().first) return false;
+    if (!GetVarint(&blob, &count) || count == 0 ||
+        count > static_cast<uint64_t>(std::numeric_limits<int64_t>::max())) {
+      return false;
+    }
     terms->emplace_back(std::move(term), static_cast<int64_t>(count));
   }
   return true;

@@ -21,7 +21,10 @@ using TermCount = std::pair<std::string, int64_t>;
 // REQUIRES: terms sorted by bytes and distinct; counts > 0.
 std::string EncodeTermCounts(const std::vector<TermCount>& terms);
 
-// Returns false when the blob is malformed.
+// Returns false when the blob is malformed: a varint cut short or wider
+// than 64 bits, a shared prefix longer than the previous term, a suffix past
+// the end, a count of 0 or above INT64_MAX, or terms that are not sorted by
+// bytes and distinct.
 bool DecodeTermCounts(std::string_view blob, std::vector<TermCount>* terms);
 
 }  // namespace chute

@@ -1,6 +1,7 @@
 #include "tokenize/tokenizer.h"
 
 #include <unicode/normalizer2.h>
+#include <unicode/uchar.h>
 #include <unicode/unistr.h>
 #include <unicode/ustring.h>
 #include <unicode/utf16.h>
@@ -16,6 +17,17 @@ int32_t CodePoints(std::u16string_view s) {
   int32_t n = 0;
   for (char16_t c : s) n += U16_IS_TRAIL(c) ? 0 : 1;
   return n;
+}
+
+// ICU gives "v2" and "A1" the number status (their last character is a
+// digit); they are names, not numbers, so they are never folded.
+bool HasLetter(std::u16string_view s) {
+  for (size_t i = 0; i < s.size();) {
+    UChar32 c;
+    U16_NEXT(s.data(), i, s.size(), c);
+    if (u_isalpha(c)) return true;
+  }
+  return false;
 }
 
 bool IsAscii(std::u16string_view s) {
@@ -81,13 +93,13 @@ void Tokenizer::Tokenize(std::string_view utf8_text,
 
 void Tokenizer::EmitSegment(const Segment& seg,
                             std::vector<std::string>* terms) {
+  std::u16string_view raw(text_.data() + seg.begin,
+                          static_cast<size_t>(seg.end - seg.begin));
   if (seg.kind == SegmentKind::kNumber &&
-      options_.numbers == NumberMode::kFold) {
+      options_.numbers == NumberMode::kFold && !HasLetter(raw)) {
     terms->emplace_back(kNumberTerm);
     return;
   }
-  std::u16string_view raw(text_.data() + seg.begin,
-                          static_cast<size_t>(seg.end - seg.begin));
   std::string term;
   int32_t code_points = 0;
   if (IsAscii(raw)) {

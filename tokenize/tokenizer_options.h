@@ -10,7 +10,8 @@ namespace chute {
 
 enum class NumberMode {
   kKeep,  // every number is a term of its own ("2026", "4.5")
-  kFold,  // every number becomes the one term kNumberTerm
+  kFold,  // every number becomes the one term kNumberTerm, which the length
+          // limits never drop; a segment with a letter ("v2", "A1") is a word
 };
 
 struct TokenizerOptions {
