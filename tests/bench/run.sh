@@ -16,6 +16,10 @@
 #                   (scikit-learn CountVectorizer + MultinomialNB, pickled)
 #     chute route:  `chute route --db DB test/ --format jsonl > file`
 #     peer route:   tests/bench/peer_route.py model.pickle test/ > file
+#     start-up:     each route command again on the first test document
+#                   alone: the fixed cost (program start, imports, loading
+#                   the model), so that per-document throughput can be told
+#                   apart from it.
 #   The peer runs under Debian's /usr/bin/python3 with OMP_NUM_THREADS=1 and
 #   OPENBLAS_NUM_THREADS=1; other variables (OPENBLAS_CORETYPE, set on some
 #   machines here) are left as they are.
@@ -23,14 +27,15 @@
 #   seconds, peak resident set size (KiB), user and system CPU seconds.
 #   Start-up (Python and scikit-learn imports, ICU data, opening the store)
 #   is part of the figure, as it is for a user.
-# - Runs alternate, chute then peer, in BENCH_PAIRS pairs (default 3) of
-#   (learn, learn, route, route); each pair learns into a fresh store and a
-#   fresh pickle. Reported: medians over the pairs. Before the first pair
+# - Runs alternate, chute then peer, in BENCH_PAIRS pairs (default 5) of
+#   (learn, learn, route, route, start-up, start-up); each pair learns into
+#   a fresh store and a fresh pickle. Reported: medians over the pairs. Before the first pair
 #   every corpus file is read once, so all runs read from the page cache.
 # - Throughput: input bytes (sum of the documents' file sizes; MB = 10^6
 #   bytes) and documents, divided by the median wall time. Ratios are
 #   chute/peer: throughput ratio = peer time / chute time (above 1: chute
-#   faster); memory ratio = chute peak RSS / peer peak RSS.
+#   faster); memory ratio = chute peak RSS / peer peak RSS. "Route without
+#   start-up" divides by (route time - start-up time).
 # - As a check that both did the work, the decisions of the last pair are
 #   compared with the true queues (accuracy) and with each other.
 # - Then chute_microbench (Google Benchmark: tokenizer bytes/s, scorer
@@ -39,7 +44,7 @@
 #   other work on the machine skews every figure.
 # Results: a table on standard output and BUILD_DIR/bench/results.json.
 #
-# Environment: BENCH_PAIRS (3), BENCH_MEGABYTES (100), BENCH_SEED (the
+# Environment: BENCH_PAIRS (5), BENCH_MEGABYTES (100), BENCH_SEED (the
 # generator's default), BENCH_WAIT_IDLE (seconds to wait, at most, for the
 # 1-minute load average to fall below 1.0 before starting; default 0).
 set -euo pipefail
@@ -51,7 +56,7 @@ if [[ ! -d $build_arg ]]; then
   exit 1
 fi
 build=$(cd "$build_arg" && pwd)
-pairs=${BENCH_PAIRS:-3}
+pairs=${BENCH_PAIRS:-5}
 megabytes=${BENCH_MEGABYTES:-100}
 wait_idle=${BENCH_WAIT_IDLE:-0}
 py=/usr/bin/python3
@@ -112,6 +117,7 @@ measure() {
 
 peer_env=(env OMP_NUM_THREADS=1 OPENBLAS_NUM_THREADS=1)
 db=$work/chute.db
+first_test=$corpus/$(head -n 1 "$corpus/route.txt")
 for pair in $(seq 1 "$pairs"); do
   rm -f "$db" "$db-wal" "$db-shm" "$work/peer.pickle"
   "$chute" init --db "$db" >/dev/null
@@ -123,6 +129,10 @@ for pair in $(seq 1 "$pairs"); do
     "$chute" route --db "$db" "$corpus/test" --format jsonl
   measure peer route "$pair" "$work/peer-route.jsonl" \
     "${peer_env[@]}" "$py" "$here/peer_route.py" "$work/peer.pickle" "$corpus/test"
+  measure chute startup "$pair" /dev/null \
+    "$chute" route --db "$db" "$first_test" --format jsonl
+  measure peer startup "$pair" /dev/null \
+    "${peer_env[@]}" "$py" "$here/peer_route.py" "$work/peer.pickle" "$first_test"
   loads+=("after-pair-$pair" "$(load1)")
 done
 

@@ -5,7 +5,7 @@ a JSON file. Standard library only.
     summarize.py --corpus DIR --work DIR --pairs N --microbench JSON
                  --out JSON --loads LABEL VALUE...
 
-Reads WORK/runs/{chute,peer}-{learn,route}-{1..N}.time (GNU time output
+Reads WORK/runs/{chute,peer}-{learn,route,startup}-{1..N}.time (GNU time output
 '%e %M %U %S': wall s, peak RSS KiB, user s, system s), CORPUS/corpus.json
 (sizes), CORPUS/test.csv (true queues), WORK/{chute,peer}-route.jsonl (the
 last pair's decisions) and the Google Benchmark JSON file.
@@ -95,12 +95,15 @@ def main():
         corpus = json.load(f)
     size = {"learn": corpus["train"], "route": corpus["test"]}
 
+    def runs_of(tool, stage):
+        return [read_time(os.path.join(args.work, "runs",
+                                       "%s-%s-%d.time" % (tool, stage, i)))
+                for i in range(1, args.pairs + 1)]
+
     results = {}
     for stage in STAGES:
         for tool in TOOLS:
-            runs = [read_time(os.path.join(args.work, "runs",
-                                           "%s-%s-%d.time" % (tool, stage, i)))
-                    for i in range(1, args.pairs + 1)]
+            runs = runs_of(tool, stage)
             wall = statistics.median(r["wall_s"] for r in runs)
             rss = statistics.median(r["peak_rss_kib"] for r in runs)
             results.setdefault(stage, {})[tool] = {
@@ -122,6 +125,29 @@ def main():
             "target_throughput": TARGET_SPEEDUP,
             "target_met": speedup >= TARGET_SPEEDUP,
         }
+
+    # Start-up: routing one document. Route throughput without it.
+    for tool in TOOLS:
+        runs = runs_of(tool, "startup")
+        startup = statistics.median(r["wall_s"] for r in runs)
+        net = results["route"][tool]["median_wall_s"] - startup
+        results.setdefault("startup", {})[tool] = {
+            "runs": runs,
+            "median_wall_s": startup,
+            "median_peak_rss_mib": round(
+                statistics.median(r["peak_rss_kib"] for r in runs) / 1024, 1),
+        }
+        results.setdefault("route_without_startup", {})[tool] = {
+            "wall_s": round(net, 2),
+            "mb_per_s": round(size["route"]["bytes"] / 1e6 / net, 2)
+                        if net > 0 else None,
+            "documents_per_s": round(size["route"]["documents"] / net, 1)
+                               if net > 0 else None,
+        }
+    c = results["route_without_startup"]["chute"]["wall_s"]
+    p = results["route_without_startup"]["peer"]["wall_s"]
+    results["route_without_startup"]["ratio_chute_over_peer"] = {
+        "throughput": round(p / c, 2) if c > 0 else None}
 
     # Did both do the work? Decisions of the last pair against the truth.
     truth = {}
@@ -176,12 +202,25 @@ def main():
                "%.1f-%.1f" % (r["min_wall_s"], r["max_wall_s"]),
                r["mb_per_s"], r["documents_per_s"], r["median_peak_rss_mib"],
                r["median_cpu_s"]))
+    for tool in TOOLS:
+        r = results["route_without_startup"][tool]
+        w("%-6s %-6s %9.2f %9s %8.2f %10.1f %13s %8s   route less start-up\n" %
+          ("net", tool, r["wall_s"], "", r["mb_per_s"] or 0,
+           r["documents_per_s"] or 0, "", ""))
+    for tool in TOOLS:
+        r = results["startup"][tool]
+        w("%-6s %-6s %9.2f %9s %8s %10s %13.1f %8s   route of 1 document\n" %
+          ("start", tool, r["median_wall_s"], "", "", "",
+           r["median_peak_rss_mib"], ""))
     for stage in STAGES:
         ratio = results[stage]["ratio_chute_over_peer"]
         w("%s: chute/peer throughput %.2fx (target >= %.0fx: %s), "
           "peak memory %.2fx\n" %
           (stage, ratio["throughput"], TARGET_SPEEDUP,
            "met" if ratio["target_met"] else "MISSED", ratio["peak_rss"]))
+    w("route less start-up: chute/peer throughput %.2fx\n" %
+      (results["route_without_startup"]["ratio_chute_over_peer"]["throughput"]
+       or 0))
     w("decisions (last pair): chute accuracy %.4f, peer accuracy %.4f, "
       "agreement %.4f; missing chute %d, peer %d\n" %
       (check["chute"]["accuracy"], check["peer"]["accuracy"],
