@@ -1,7 +1,8 @@
 // chute init: creates a store with the model settings fixed for its life.
 #include <CLI/CLI.hpp>
 
-#include <map>
+#include <cmath>
+
 
 #include "cli/command.h"
 #include "cli/common_options.h"
@@ -46,23 +47,28 @@ CommandRun SetupInit(CLI::App* cmd) {
   StoreSettings& st = o->settings;
   cmd->add_option("--alpha", st.model.alpha,
                   "smoothing added to every count: 1 is Laplace, 0 < alpha < 1 Lidstone (default 1)")
-      ->check(CLI::Range(1e-12, 1e12));
-  static const std::map<std::string, PriorMode> kPriors = {
-      {"learned", PriorMode::kLearned}, {"uniform", PriorMode::kUniform}};
-  cmd->add_option("--prior", st.model.prior,
-                  "prior of queues without a hand-set prior: learned (share of documents, "
-                  "default) or uniform")
-      ->transform(CLI::CheckedTransformer(kPriors));
-  static const std::map<std::string, bool> kOnOff = {{"on", true}, {"off", false}};
-  cmd->add_option("--bigrams", st.tokenizer.bigrams,
-                  "also count pairs of adjacent words: on or off (default off)")
-      ->transform(CLI::CheckedTransformer(kOnOff));
-  static const std::map<std::string, NumberMode> kNumbers = {
-      {"keep", NumberMode::kKeep}, {"fold", NumberMode::kFold}};
-  cmd->add_option("--numbers", st.tokenizer.numbers,
-                  "keep every number as a term of its own, or fold all numbers into one "
-                  "term <num> (default keep)")
-      ->transform(CLI::CheckedTransformer(kNumbers));
+      ->check(CLI::Validator(
+          [](std::string& v) -> std::string {
+            double a = 0;
+            try {
+              a = std::stod(v);
+            } catch (const std::exception&) {
+              return "'" + v + "' is not a number";
+            }
+            return a > 0 && std::isfinite(a) ? "" : "must be greater than 0";
+          },
+          "", "positive"))
+      ->type_name("ALPHA");
+  AddChoiceOption<PriorMode>(cmd, "--prior", &st.model.prior,
+                             {{"learned", PriorMode::kLearned}, {"uniform", PriorMode::kUniform}},
+                             "prior of queues without a hand-set prior: learned (their share of "
+                             "the documents, default) or uniform");
+  AddChoiceOption<bool>(cmd, "--bigrams", &st.tokenizer.bigrams, {{"on", true}, {"off", false}},
+                        "also count pairs of adjacent terms (default off)");
+  AddChoiceOption<NumberMode>(cmd, "--numbers", &st.tokenizer.numbers,
+                              {{"keep", NumberMode::kKeep}, {"fold", NumberMode::kFold}},
+                              "keep every number as a term of its own, or fold all numbers into "
+                              "one term <num> (default keep)");
   cmd->add_option("--min-length", st.tokenizer.min_length,
                   "drop terms shorter than this many characters (default 1)")
       ->check(CLI::Range(1, 1000));

@@ -6,7 +6,6 @@
 #include <cstdlib>
 #include <ctime>
 #include <filesystem>
-#include <map>
 
 #include "cli/read/document_reader.h"
 
@@ -24,12 +23,11 @@ void AddDbOption(CLI::App* command, std::string* db) {
 
 void AddFormatOption(CLI::App* command, OutputFormat* format) {
   *format = OutputFormat::kTable;
-  static const std::map<std::string, OutputFormat> kNames = {
-      {"table", OutputFormat::kTable},
-      {"jsonl", OutputFormat::kJsonl},
-      {"csv", OutputFormat::kCsv}};
-  command->add_option("--format", *format, "table (default), jsonl or csv")
-      ->transform(CLI::CheckedTransformer(kNames, CLI::ignore_case));
+  AddChoiceOption<OutputFormat>(command, "--format", format,
+                                {{"table", OutputFormat::kTable},
+                                 {"jsonl", OutputFormat::kJsonl},
+                                 {"csv", OutputFormat::kCsv}},
+                                "table for a person (default), jsonl or csv for programs");
 }
 
 void AddMaxBytesOption(CLI::App* command, int64_t* max_bytes) {

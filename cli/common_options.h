@@ -7,17 +7,24 @@
 #include <memory>
 #include <string>
 #include <string_view>
+#include <utility>
+#include <vector>
+
+#include <CLI/CLI.hpp>
 
 #include "store/status.h"
 #include "store/store.h"
 
-namespace CLI {
-class App;
-}
-
 namespace chute {
 
 enum class OutputFormat { kTable, kJsonl, kCsv };
+
+// An option whose value is one of a few words, each standing for a value of
+// T: "--prior learned|uniform". Help shows the words; anything else is a
+// usage error.
+template <typename T>
+void AddChoiceOption(CLI::App* command, const std::string& name, T* out,
+                     std::vector<std::pair<std::string, T>> choices, const std::string& help);
 
 // --db PATH; the default is $CHUTE_DB, else ./chute.db.
 void AddDbOption(CLI::App* command, std::string* db);
@@ -48,6 +55,28 @@ std::string SourcePath(const std::string& path);
 
 // The current time, RFC 3339 in UTC with seconds ("2026-12-02T01:48:18Z").
 std::string NowRfc3339();
+
+template <typename T>
+void AddChoiceOption(CLI::App* command, const std::string& name, T* out,
+                     std::vector<std::pair<std::string, T>> choices, const std::string& help) {
+  std::vector<std::string> words;
+  std::string type;
+  for (const auto& c : choices) {
+    words.push_back(c.first);
+    type += (type.empty() ? "" : "|") + c.first;
+  }
+  command
+      ->add_option_function<std::string>(
+          name,
+          [out, choices](const std::string& v) {
+            for (const auto& c : choices) {
+              if (c.first == v) *out = c.second;
+            }
+          },
+          help)
+      ->check(CLI::IsMember(words).description(""))
+      ->type_name(type);
+}
 
 }  // namespace chute
 
