@@ -84,6 +84,24 @@ class Transaction {
   bool open_ = false;
 };
 
+// A read transaction (BEGIN ... COMMIT): every statement inside sees one
+// consistent snapshot of the store, even while a writer commits.
+class ReadTransaction {
+ public:
+  explicit ReadTransaction(sqlite3* db) : db_(db), status_(Exec(db, "BEGIN")) {}
+  ~ReadTransaction() {
+    if (status_.ok()) sqlite3_exec(db_, "COMMIT", nullptr, nullptr, nullptr);
+  }
+  ReadTransaction(const ReadTransaction&) = delete;
+  ReadTransaction& operator=(const ReadTransaction&) = delete;
+
+  const Status& status() const { return status_; }
+
+ private:
+  sqlite3* db_;
+  Status status_;
+};
+
 }  // namespace chute::sql
 
 #endif  // CHUTE_STORE_SQLITE_H_

@@ -237,12 +237,8 @@ Status Store::VocabularySize(int64_t* out) {
 Status Store::LoadModelCounts(ModelCounts* out) {
   *out = ModelCounts();
   // Read in one transaction so that queues and counts agree.
-  Status s = sql::Exec(db_.get(), "BEGIN");
-  if (!s.ok()) return s;
-  struct EndRead {
-    sqlite3* db;
-    ~EndRead() { sqlite3_exec(db, "COMMIT", nullptr, nullptr, nullptr); }
-  } end_read{db_.get()};
+  sql::ReadTransaction read(db_.get());
+  if (!read.status().ok()) return read.status();
 
   std::unordered_map<int64_t, size_t> column;
   {
@@ -302,6 +298,31 @@ Status Store::FindDocument(const std::string& digest,
   } else if (rc != SQLITE_DONE) {
     return sql::ErrorStatus(db_.get(), path_);
   }
+  return Status::Ok();
+}
+
+Status Store::ReadLedger(const std::function<void(LedgerDocument&)>& fn) {
+  sql::ReadTransaction read(db_.get());
+  if (!read.status().ok()) return read.status();
+  sql::Statement st(db_.get(),
+                    "SELECT l.digest, q.name, l.source, l.learned_at, l.tokens, l.term_counts "
+                    "FROM ledger l JOIN queues q ON q.id = l.queue_id ORDER BY l.id");
+  if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+  LedgerDocument doc;
+  int rc;
+  while ((rc = st.Step()) == SQLITE_ROW) {
+    doc.digest = st.ColumnText(0);
+    doc.queue = st.ColumnText(1);
+    doc.source = st.ColumnText(2);
+    doc.learned_at = st.ColumnText(3);
+    doc.tokens = st.ColumnInt(4);
+    if (!DecodeTermCounts(st.ColumnBlob(5), &doc.terms)) {
+      return Status::Corruption(path_ + ": the ledger entry of " + doc.digest +
+                                " does not decode");
+    }
+    fn(doc);
+  }
+  if (rc != SQLITE_DONE) return sql::ErrorStatus(db_.get(), path_);
   return Status::Ok();
 }
 

@@ -11,6 +11,7 @@
 #define CHUTE_STORE_STORE_H_
 
 #include <cstdint>
+#include <functional>
 #include <memory>
 #include <optional>
 #include <string>
@@ -21,6 +22,7 @@
 #include "store/sqlite.h"
 #include "store/status.h"
 #include "store/store_settings.h"
+#include "store/term_counts_codec.h"
 
 namespace chute {
 
@@ -41,6 +43,16 @@ struct LedgerEntry {
   std::string source;
   std::string learned_at;
   int64_t tokens = 0;
+};
+
+// A learned document with its own term counts, as the ledger keeps it.
+struct LedgerDocument {
+  std::string digest;
+  std::string queue;
+  std::string source;
+  std::string learned_at;
+  int64_t tokens = 0;
+  std::vector<TermCount> terms;  // sorted by term bytes, counts > 0
 };
 
 // What happened to each document of a LearnBatch, in batch order.
@@ -84,6 +96,11 @@ class Store {
   // The ledger entry of a digest; *out is empty when it is not learned.
   Status FindDocument(const std::string& digest,
                       std::optional<LedgerEntry>* out);
+
+  // Calls fn for every learned document, in the order they were learned,
+  // inside one read transaction (a consistent view). Fails on a ledger blob
+  // that does not decode.
+  Status ReadLedger(const std::function<void(LedgerDocument&)>& fn);
 
   // Learns a batch in one transaction. Queues are created on demand;
   // documents already in the ledger are not counted again (see

@@ -463,6 +463,44 @@ TEST_F(StoreTest, LedgerKeepsEachDocumentsOwnCounts) {
   }
 }
 
+TEST_F(StoreTest, ReadLedgerGivesEveryDocumentInLearningOrder) {
+  std::unique_ptr<Store> store = CreateStore();
+  ASSERT_NE(store, nullptr);
+  LearnAll(store.get(), FirstBatch());
+  std::vector<LedgerDocument> seen;
+  Status s = store->ReadLedger([&](LedgerDocument& d) { seen.push_back(d); });
+  ASSERT_TRUE(s.ok()) << s.message();
+  ASSERT_EQ(seen.size(), FirstBatch().size());
+  for (size_t i = 0; i < seen.size(); ++i) {
+    const Doc& d = FirstBatch()[i];
+    std::map<std::string, int64_t> own;
+    for (const std::string& t : d.terms) ++own[t];
+    EXPECT_EQ(seen[i].digest, d.digest);
+    EXPECT_EQ(seen[i].queue, d.queue);
+    EXPECT_EQ(seen[i].source, SourceOf(d));
+    EXPECT_EQ(seen[i].learned_at, kNow);
+    EXPECT_EQ(seen[i].tokens, static_cast<int64_t>(d.terms.size()));
+    EXPECT_EQ(seen[i].terms, std::vector<TermCount>(own.begin(), own.end()));
+  }
+}
+
+TEST_F(StoreTest, ReadLedgerRefusesABlobThatDoesNotDecode) {
+  {
+    std::unique_ptr<Store> store = CreateStore();
+    ASSERT_NE(store, nullptr);
+    LearnAll(store.get(), FirstBatch());
+  }
+  {
+    Db db = OpenRaw(path_, SQLITE_OPEN_READWRITE);
+    ExecRaw(db.get(), "UPDATE ledger SET term_counts = x'05' WHERE id = 2");
+  }
+  std::unique_ptr<Store> store;
+  ASSERT_TRUE(Store::Open(path_, &store).ok());
+  Status s = store->ReadLedger([](LedgerDocument&) {});
+  EXPECT_EQ(s.code(), Status::Code::kCorruption);
+  EXPECT_NE(s.message().find("does not decode"), std::string::npos) << s.message();
+}
+
 TEST_F(StoreTest, SameDigestSameQueueIsAlreadyLearned) {
   std::unique_ptr<Store> store = CreateStore();
   ASSERT_NE(store, nullptr);
