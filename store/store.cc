@@ -48,7 +48,10 @@ Status Configure(sqlite3* db) {
 
 Status OpenDb(const std::string& path, sql::DbHandle* out) {
   sqlite3* raw = nullptr;
-  int rc = sqlite3_open_v2(path.c_str(), &raw, SQLITE_OPEN_READWRITE, nullptr);
+  // One connection per thread (Store is not shared), so SQLite's own mutexes
+  // are not needed.
+  int rc = sqlite3_open_v2(path.c_str(), &raw, SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOMUTEX,
+                           nullptr);
   out->reset(raw);
   if (rc != SQLITE_OK) {
     return Status::IoError(path + ": cannot open: " +
