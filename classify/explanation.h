@@ -56,7 +56,7 @@ struct ExplainOptions {
 struct Explanation {
   // Every queue's score and posterior, best first (Model::Decide).
   Decision decision;
-  uint32_t queue = 0;                // the chosen queue (Model::queues() index)
+  uint32_t queue = 0;                 // the chosen queue (Model::queues() index)
   std::optional<uint32_t> runner_up;  // none: see the top of this file
   // score(c) − score(r) exactly as Model::Decide computed the two scores;
   // 0 without a runner-up.
