@@ -13,6 +13,7 @@
 
 #include "store/queue_name.h"
 #include "store/schema.h"
+#include "store/store_file.h"
 #include "store/term_counts_codec.h"
 
 namespace chute {
@@ -25,31 +26,9 @@ std::string FormatDouble(double v) {
   return std::string(buf, r.ptr);
 }
 
-bool ParseDouble(std::string_view s, double* v) {
-  auto r = std::from_chars(s.data(), s.data() + s.size(), *v);
-  return r.ec == std::errc() && r.ptr == s.data() + s.size();
-}
-
-bool ParseInt(std::string_view s, int32_t* v) {
-  auto r = std::from_chars(s.data(), s.data() + s.size(), *v);
-  return r.ec == std::errc() && r.ptr == s.data() + s.size();
-}
-
-// Connection settings every open applies.
-Status Configure(sqlite3* db) {
-  sqlite3_busy_timeout(db, kBusyTimeoutMs);
-  for (const char* pragma :
-       {"PRAGMA foreign_keys = ON", "PRAGMA synchronous = FULL"}) {
-    Status s = sql::Exec(db, pragma);
-    if (!s.ok()) return s;
-  }
-  return Status::Ok();
-}
-
-Status OpenDb(const std::string& path, sql::DbHandle* out) {
+// Opens a file that Create has just made (empty), read-write.
+Status OpenNewDb(const std::string& path, sql::DbHandle* out) {
   sqlite3* raw = nullptr;
-  // One connection per thread (Store is not shared), so SQLite's own mutexes
-  // are not needed.
   int rc = sqlite3_open_v2(path.c_str(), &raw, SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOMUTEX,
                            nullptr);
   out->reset(raw);
@@ -58,13 +37,6 @@ Status OpenDb(const std::string& path, sql::DbHandle* out) {
                            (raw ? sqlite3_errmsg(raw) : sqlite3_errstr(rc)));
   }
   sqlite3_extended_result_codes(raw, 1);
-  return Status::Ok();
-}
-
-Status PragmaInt(sqlite3* db, const char* pragma, int64_t* v) {
-  sql::Statement st(db, pragma);
-  if (!st.ok() || st.Step() != SQLITE_ROW) return sql::ErrorStatus(db, pragma);
-  *v = st.ColumnInt(0);
   return Status::Ok();
 }
 
@@ -93,9 +65,9 @@ Status Store::Create(const std::string& path, const StoreSettings& settings,
     return s;
   };
   sql::DbHandle db;
-  Status s = OpenDb(path, &db);
+  Status s = OpenNewDb(path, &db);
   if (s.ok()) s = sql::Exec(db.get(), "PRAGMA journal_mode = WAL");
-  if (s.ok()) s = Configure(db.get());
+  if (s.ok()) s = ConfigureStoreConnection(db.get());
   if (s.ok()) s = Migrate(db.get(), SchemaVersion());
   if (!s.ok()) return fail(Status::IoError(path + ": " + s.message()));
   std::unique_ptr<Store> store(new Store(path, std::move(db)));
@@ -107,39 +79,11 @@ Status Store::Create(const std::string& path, const StoreSettings& settings,
 }
 
 Status Store::Open(const std::string& path, std::unique_ptr<Store>* out) {
-  struct stat st;
-  if (::stat(path.c_str(), &st) != 0) {
-    if (errno == ENOENT) {
-      return Status::NotFound(path + ": no chute store here (create one with 'chute init')");
-    }
-    return Status::IoError(path + ": " + std::strerror(errno));
-  }
-  if (!S_ISREG(st.st_mode)) {
-    return Status::InvalidArgument(path + ": not a chute store (not a regular file)");
-  }
   sql::DbHandle db;
-  Status s = OpenDb(path, &db);
+  int64_t version = 0;
+  Status s = OpenStoreFile(path, &db, &version);
   if (!s.ok()) return s;
-  sqlite3_busy_timeout(db.get(), kBusyTimeoutMs);
-  int64_t app_id = 0, version = 0;
-  s = PragmaInt(db.get(), "PRAGMA application_id", &app_id);
-  if (s.ok()) s = PragmaInt(db.get(), "PRAGMA user_version", &version);
-  if (!s.ok()) {
-    if (s.code() == Status::Code::kCorruption) {
-      return Status::Corruption(path + ": not a chute store (not an SQLite database, or damaged)");
-    }
-    return Status::IoError(path + ": " + s.message());
-  }
-  if (app_id != kApplicationId) {
-    return Status::Corruption(path + ": not a chute store (an SQLite file of another program)");
-  }
-  if (version > SchemaVersion()) {
-    return Status::InvalidArgument(
-        path + ": store has schema version " + std::to_string(version) +
-        ", newer than this chute understands (" +
-        std::to_string(SchemaVersion()) + "); use a newer chute");
-  }
-  s = Configure(db.get());
+  s = ConfigureStoreConnection(db.get());
   if (s.ok() && version < SchemaVersion()) s = Migrate(db.get(), SchemaVersion());
   if (!s.ok()) return Status::IoError(path + ": " + s.message());
   std::unique_ptr<Store> store(new Store(path, std::move(db)));
@@ -176,36 +120,12 @@ Status Store::SaveSettings(const StoreSettings& settings) {
 Status Store::LoadSettings() {
   sql::Statement st(db_.get(), "SELECT key, value FROM settings");
   if (!st.ok()) return Status::Corruption(path_ + ": " + st.error());
-  StoreSettings s;
-  int seen = 0;
-  bool good = true;
-  while (st.Step() == SQLITE_ROW) {
-    std::string_view key = st.ColumnText(0), value = st.ColumnText(1);
-    ++seen;
-    if (key == "alpha") {
-      good &= ParseDouble(value, &s.model.alpha) && s.model.alpha > 0;
-    } else if (key == "prior") {
-      good &= value == "learned" || value == "uniform";
-      s.model.prior = value == "uniform" ? PriorMode::kUniform : PriorMode::kLearned;
-    } else if (key == "bigrams") {
-      good &= value == "on" || value == "off";
-      s.tokenizer.bigrams = value == "on";
-    } else if (key == "numbers") {
-      good &= value == "keep" || value == "fold";
-      s.tokenizer.numbers = value == "fold" ? NumberMode::kFold : NumberMode::kKeep;
-    } else if (key == "min_length") {
-      good &= ParseInt(value, &s.tokenizer.min_length);
-    } else if (key == "max_length") {
-      good &= ParseInt(value, &s.tokenizer.max_length);
-    } else {
-      --seen;
-    }
+  std::vector<std::pair<std::string, std::string>> rows;
+  while (st.Step() == SQLITE_ROW) rows.emplace_back(st.ColumnText(0), st.ColumnText(1));
+  std::string why;
+  if (!DecodeSettings(rows, &settings_, &why)) {
+    return Status::Corruption(path_ + ": the store's settings are damaged (" + why + ")");
   }
-  if (!good || seen != 6 || s.tokenizer.min_length < 1 ||
-      s.tokenizer.max_length < s.tokenizer.min_length) {
-    return Status::Corruption(path_ + ": the store's settings are damaged");
-  }
-  settings_ = s;
   return Status::Ok();
 }
 

@@ -1,6 +1,10 @@
 #ifndef CHUTE_STORE_STORE_SETTINGS_H_
 #define CHUTE_STORE_STORE_SETTINGS_H_
 
+#include <string>
+#include <utility>
+#include <vector>
+
 #include "classify/model_counts.h"
 #include "tokenize/tokenizer_options.h"
 
@@ -11,6 +15,14 @@ struct StoreSettings {
   TokenizerOptions tokenizer;
   ModelOptions model;
 };
+
+// Reads the settings table's (key, value) rows. Returns false, with the
+// reason in plain words in *why, when a setting is missing, repeated or has
+// a value chute cannot use (alpha not a positive number, an unknown word,
+// a minimum length below 1 or a maximum below the minimum). Keys chute does
+// not know are ignored.
+bool DecodeSettings(const std::vector<std::pair<std::string, std::string>>& rows,
+                    StoreSettings* out, std::string* why);
 
 }  // namespace chute
 
