@@ -21,6 +21,10 @@ constexpr chute::Command kCommands[] = {
      chute::SetupQueues},
     {"terms-of", "print the terms chute counts for a document", chute::SetupTermsOf},
     {"why", "explain a routing decision: the terms that pulled each way", chute::SetupWhy},
+    {"check", "check the store's integrity: SQLite's own checks and chute's invariants",
+     chute::SetupCheck},
+    {"backup", "copy the store to a file while it is in use", chute::SetupBackup},
+    {"restore", "put a copy made by 'chute backup' back as the store", chute::SetupRestore},
 };
 
 // Levenshtein distance, for "did you mean" (common practice).
