@@ -23,8 +23,9 @@ int RunBackup(const BackupOptions& o) {
     Report("backup", s.message());
     return kExitFailed;
   }
-  Print("backed up " + o.db + " to " + o.file + ": " + std::to_string(r.documents) +
-        " documents, " + std::to_string(r.queues) + " queues, " + std::to_string(r.bytes) +
+  Print("backed up " + o.db + " to " + o.file + ": " +
+        std::to_string(r.documents) + " documents, " +
+        std::to_string(r.queues) + " queues, " + std::to_string(r.bytes) +
         " bytes\n");
   return kExitDone;
 }
@@ -36,7 +37,8 @@ CommandRun SetupBackup(CLI::App* cmd) {
   AddDbOption(cmd, &o->db);
   cmd->add_option("FILE", o->file, "where to write the copy")->required();
   cmd->add_flag("--force", o->force, "replace FILE when it exists");
-  cmd->footer(R"(The copy is one consistent snapshot of the store; routing and learning
+  cmd->footer(
+      R"(The copy is one consistent snapshot of the store; routing and learning
 may go on meanwhile. It is written beside FILE (mode 0600), checked, and
 renamed into place. The copy holds everything the store holds, personal
 data included: keep it as safe as the store.

@@ -20,8 +20,9 @@ struct CheckOptions {
 };
 
 std::string Summary(const CheckReport& r) {
-  return std::to_string(r.documents) + " documents, " + std::to_string(r.queues) + " queues, " +
-         std::to_string(r.terms) + " terms";
+  return std::to_string(r.documents) + " documents, " +
+         std::to_string(r.queues) + " queues, " + std::to_string(r.terms) +
+         " terms";
 }
 
 int RunCheck(const CheckOptions& o) {
@@ -31,8 +32,9 @@ int RunCheck(const CheckOptions& o) {
     return kExitFailed;
   }
   const bool consistent = report.consistent();
-  const std::string summary = consistent ? "store is consistent: " + Summary(report)
-                                         : "store is NOT consistent: " + Summary(report);
+  const std::string summary =
+      consistent ? "store is consistent: " + Summary(report)
+                 : "store is NOT consistent: " + Summary(report);
   if (o.format == OutputFormat::kJsonl) {
     JsonWriter w;
     for (const CheckLine& l : report.lines) {
@@ -62,7 +64,8 @@ CommandRun SetupCheck(CLI::App* cmd) {
   auto o = std::make_shared<CheckOptions>();
   AddDbOption(cmd, &o->db);
   AddFormatOption(cmd, &o->format);
-  cmd->footer(R"(Reads the whole store in one read transaction; it changes nothing, and
+  cmd->footer(
+      R"(Reads the whole store in one read transaction; it changes nothing, and
 routing and learning may go on meanwhile.
 
 Exit status: 0 consistent; 1 something is wrong (each finding printed) or

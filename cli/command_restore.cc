@@ -23,10 +23,12 @@ int RunRestore(const RestoreOptions& o) {
     Report("restore", s.message());
     return kExitFailed;
   }
-  std::string line = "restored " + o.file + (r.created ? " as the new store " : " into ") + o.db +
+  std::string line = "restored " + o.file +
+                     (r.created ? " as the new store " : " into ") + o.db +
                      ": " + std::to_string(r.documents) + " documents, " +
                      std::to_string(r.queues) + " queues";
-  if (!r.created) line += " (it held " + std::to_string(r.documents_before) + " documents)";
+  if (!r.created)
+    line += " (it held " + std::to_string(r.documents_before) + " documents)";
   Print(line + "\n");
   return kExitDone;
 }
@@ -39,7 +41,8 @@ CommandRun SetupRestore(CLI::App* cmd) {
   cmd->add_option("FILE", o->file, "a copy made by 'chute backup'")->required();
   cmd->add_flag("--force", o->force,
                 "replace a store that holds learned documents (they are lost)");
-  cmd->footer(R"(FILE must be a chute store of a schema this chute understands (an older
+  cmd->footer(
+      R"(FILE must be a chute store of a schema this chute understands (an older
 one is upgraded after the restore); it is only read. The store at --db is
 created when it does not exist; when it exists it is overwritten in one
 transaction (routers running meanwhile see the old model, then the

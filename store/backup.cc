@@ -31,14 +31,15 @@ Status CopyPages(sqlite3* from, sqlite3* to, const std::string& what) {
   sqlite3_backup* raw = sqlite3_backup_init(to, "main", from, "main");
   if (raw == nullptr) return sql::ErrorStatus(to, what);
   std::unique_ptr<sqlite3_backup, BackupCloser> backup(raw);
-  const auto deadline =
-      std::chrono::steady_clock::now() + std::chrono::milliseconds(kBusyTimeoutMs);
+  const auto deadline = std::chrono::steady_clock::now() +
+                        std::chrono::milliseconds(kBusyTimeoutMs);
   for (;;) {
     int rc = sqlite3_backup_step(raw, -1);
     if (rc == SQLITE_DONE) break;
     if ((rc & 0xff) == SQLITE_BUSY || (rc & 0xff) == SQLITE_LOCKED) {
       if (std::chrono::steady_clock::now() > deadline) {
-        return Status::Busy(what + ": the store stayed locked; try again later");
+        return Status::Busy(what +
+                            ": the store stayed locked; try again later");
       }
       std::this_thread::sleep_for(std::chrono::milliseconds(20));
       continue;
@@ -66,7 +67,9 @@ Status QuickCheck(sqlite3* db, const std::string& path) {
     return Status::Corruption(path + ": damaged (" + sqlite3_errmsg(db) + ")");
   }
   std::string first(st.ColumnText(0));
-  if (first != "ok") return Status::Corruption(path + ": damaged (SQLite reports: " + first + ")");
+  if (first != "ok")
+    return Status::Corruption(path + ": damaged (SQLite reports: " + first +
+                              ")");
   return Status::Ok();
 }
 
@@ -87,7 +90,8 @@ Status SyncPath(const std::string& path, int flags) {
   if (fd < 0) return Status::IoError(path + ": " + std::strerror(errno));
   int rc = ::fsync(fd);
   ::close(fd);
-  if (rc != 0) return Status::IoError(path + ": cannot flush: " + std::strerror(errno));
+  if (rc != 0)
+    return Status::IoError(path + ": cannot flush: " + std::strerror(errno));
   return Status::Ok();
 }
 
@@ -98,19 +102,22 @@ std::string FolderOf(const std::string& path) {
 
 }  // namespace
 
-Status BackupStore(const std::string& db_path, const std::string& file, bool replace,
-                   BackupResult* result) {
+Status BackupStore(const std::string& db_path, const std::string& file,
+                   bool replace, BackupResult* result) {
   *result = BackupResult();
   struct stat st;
   if (::stat(file.c_str(), &st) == 0) {
     if (SameFile(db_path, file)) {
-      return Status::InvalidArgument(file + ": is the store itself; back up to another file");
+      return Status::InvalidArgument(
+          file + ": is the store itself; back up to another file");
     }
     if (!S_ISREG(st.st_mode)) {
-      return Status::InvalidArgument(file + ": exists and is not a regular file");
+      return Status::InvalidArgument(file +
+                                     ": exists and is not a regular file");
     }
     if (!replace) {
-      return Status::InvalidArgument(file + ": already exists; add --force to replace it");
+      return Status::InvalidArgument(
+          file + ": already exists; add --force to replace it");
     }
   }
   sql::DbHandle source;
@@ -122,7 +129,9 @@ Status BackupStore(const std::string& db_path, const std::string& file, bool rep
   // atomic), 0600 from its first instant (mkstemp).
   std::string temp = file + ".tmp-XXXXXX";
   int fd = ::mkstemp(temp.data());
-  if (fd < 0) return Status::IoError(file + ": cannot create a file beside it: " + std::strerror(errno));
+  if (fd < 0)
+    return Status::IoError(
+        file + ": cannot create a file beside it: " + std::strerror(errno));
   ::close(fd);
   auto fail = [&](Status failed) {
     RemoveWithCompanions(temp);
@@ -130,10 +139,13 @@ Status BackupStore(const std::string& db_path, const std::string& file, bool rep
   };
   {
     sqlite3* raw = nullptr;
-    int rc = sqlite3_open_v2(temp.c_str(), &raw, SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOMUTEX,
-                             nullptr);
+    int rc =
+        sqlite3_open_v2(temp.c_str(), &raw,
+                        SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOMUTEX, nullptr);
     sql::DbHandle copy(raw);
-    if (rc != SQLITE_OK) return fail(Status::IoError(temp + ": cannot open: " + sqlite3_errstr(rc)));
+    if (rc != SQLITE_OK)
+      return fail(
+          Status::IoError(temp + ": cannot open: " + sqlite3_errstr(rc)));
     s = CopyPages(source.get(), copy.get(), db_path + ": backup");
     if (!s.ok()) return fail(s);
   }
@@ -150,23 +162,26 @@ Status BackupStore(const std::string& db_path, const std::string& file, bool rep
     }
     if (s.ok()) s = QuickCheck(copy.get(), temp);
     if (s.ok()) s = CountStore(copy.get(), &result->documents, &result->queues);
-    if (!s.ok()) return fail(Status::Corruption(file + ": the copy failed its check: " + s.message()));
+    if (!s.ok())
+      return fail(Status::Corruption(
+          file + ": the copy failed its check: " + s.message()));
   }
   s = SyncPath(temp, O_RDONLY);
   if (!s.ok()) return fail(s);
   if (::rename(temp.c_str(), file.c_str()) != 0) {
-    return fail(Status::IoError(file + ": cannot rename the copy into place: " +
-                                std::strerror(errno)));
+    return fail(Status::IoError(
+        file + ": cannot rename the copy into place: " + std::strerror(errno)));
   }
-  RemoveWithCompanions(temp);  // only companions can be left; the copy is renamed
+  RemoveWithCompanions(
+      temp);  // only companions can be left; the copy is renamed
   s = SyncPath(FolderOf(file), O_RDONLY | O_DIRECTORY);
   if (!s.ok()) return s;
   if (::stat(file.c_str(), &st) == 0) result->bytes = st.st_size;
   return Status::Ok();
 }
 
-Status RestoreStore(const std::string& file, const std::string& db_path, bool replace,
-                    RestoreResult* result) {
+Status RestoreStore(const std::string& file, const std::string& db_path,
+                    bool replace, RestoreResult* result) {
   *result = RestoreResult();
   sql::DbHandle source;
   Status s = OpenStoreFile(file, &source, &result->schema_of_copy);
@@ -178,27 +193,34 @@ Status RestoreStore(const std::string& file, const std::string& db_path, bool re
   struct stat st;
   if (::stat(db_path.c_str(), &st) == 0) {
     if (SameFile(file, db_path)) {
-      return Status::InvalidArgument(file + ": is the store itself; nothing to restore");
+      return Status::InvalidArgument(
+          file + ": is the store itself; nothing to restore");
     }
     int64_t target_version = 0, queues = 0;
     s = OpenStoreFile(db_path, &target, &target_version);
     if (!s.ok()) return s;
     s = ConfigureStoreConnection(target.get());
-    if (s.ok()) s = CountStore(target.get(), &result->documents_before, &queues);
+    if (s.ok())
+      s = CountStore(target.get(), &result->documents_before, &queues);
     if (!s.ok()) return Status::IoError(db_path + ": " + s.message());
     if (result->documents_before > 0 && !replace) {
-      return Status::InvalidArgument(
-          db_path + ": holds " + std::to_string(result->documents_before) +
-          " learned documents that restoring " + file + " would replace; add --force");
+      return Status::InvalidArgument(db_path + ": holds " +
+                                     std::to_string(result->documents_before) +
+                                     " learned documents that restoring " +
+                                     file + " would replace; add --force");
     }
   } else if (errno == ENOENT) {
-    int fd = ::open(db_path.c_str(), O_CREAT | O_EXCL | O_WRONLY | O_CLOEXEC, 0600);
-    if (fd < 0) return Status::IoError(db_path + ": cannot create: " + std::strerror(errno));
+    int fd =
+        ::open(db_path.c_str(), O_CREAT | O_EXCL | O_WRONLY | O_CLOEXEC, 0600);
+    if (fd < 0)
+      return Status::IoError(db_path +
+                             ": cannot create: " + std::strerror(errno));
     ::close(fd);
     result->created = true;
     sqlite3* raw = nullptr;
-    int rc = sqlite3_open_v2(db_path.c_str(), &raw, SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOMUTEX,
-                             nullptr);
+    int rc =
+        sqlite3_open_v2(db_path.c_str(), &raw,
+                        SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOMUTEX, nullptr);
     target.reset(raw);
     if (rc == SQLITE_OK) sqlite3_busy_timeout(raw, kBusyTimeoutMs);
     if (rc != SQLITE_OK) {

@@ -27,15 +27,16 @@ struct BackupResult {
 // absent, the old file, or the whole copy. Fails, changing nothing, when
 // `file` exists and !replace, when it is the store itself, or when db_path
 // is not a chute store.
-Status BackupStore(const std::string& db_path, const std::string& file, bool replace,
-                   BackupResult* result);
+Status BackupStore(const std::string& db_path, const std::string& file,
+                   bool replace, BackupResult* result);
 
 struct RestoreResult {
-  bool created = false;           // db_path did not exist and was created
-  int64_t documents_before = 0;   // ledger entries db_path held before
-  int64_t documents = 0;          // ledger entries after the restore
+  bool created = false;          // db_path did not exist and was created
+  int64_t documents_before = 0;  // ledger entries db_path held before
+  int64_t documents = 0;         // ledger entries after the restore
   int64_t queues = 0;
-  int64_t schema_of_copy = 0;     // the copy's schema version (older ones are upgraded)
+  int64_t schema_of_copy =
+      0;  // the copy's schema version (older ones are upgraded)
 };
 
 // Puts the copy `file` back as the store at db_path. `file` must be a chute
@@ -47,8 +48,8 @@ struct RestoreResult {
 // new one. When db_path does not exist it is created (mode 0600). An older
 // schema is upgraded after the copy. Fails, changing nothing, when `file` is
 // the store itself.
-Status RestoreStore(const std::string& file, const std::string& db_path, bool replace,
-                    RestoreResult* result);
+Status RestoreStore(const std::string& file, const std::string& db_path,
+                    bool replace, RestoreResult* result);
 
 }  // namespace chute
 

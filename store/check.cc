@@ -35,9 +35,10 @@ class Findings {
     if (count_ == 0) {
       report_->lines.push_back({check_, true, std::move(verified)});
     } else if (count_ > kMaxFindingsPerCheck) {
-      report_->lines.push_back({check_, false,
-                                "... and " + std::to_string(count_ - kMaxFindingsPerCheck) +
-                                    " more like these"});
+      report_->lines.push_back(
+          {check_, false,
+           "... and " + std::to_string(count_ - kMaxFindingsPerCheck) +
+               " more like these"});
     }
   }
 
@@ -108,7 +109,8 @@ class Checker {
     Findings f(report_, "foreign_keys");
     sql::Statement st(db_, "PRAGMA foreign_key_check");
     if (!st.ok()) return Error();
-    std::map<std::pair<std::string, std::string>, int64_t> orphans;  // (table, parent)
+    std::map<std::pair<std::string, std::string>, int64_t>
+        orphans;  // (table, parent)
     int rc;
     while ((rc = st.Step()) == SQLITE_ROW) {
       ++orphans[{std::string(st.ColumnText(0)), std::string(st.ColumnText(2))}];
@@ -116,19 +118,22 @@ class Checker {
     if (rc != SQLITE_DONE) return Error();
     for (const auto& [key, n] : orphans) {
       const auto& [table, parent] = key;
-      std::string what = parent == "queues" ? "a queue"
+      std::string what = parent == "queues"  ? "a queue"
                          : parent == "terms" ? "a term"
                                              : "a row of " + parent;
-      std::string rows = table == "ledger" ? Plural(n, "ledger entry", "ledger entries")
-                                           : Plural(n, "row", "rows") + " of " + table;
-      f.Add(rows + (n == 1 ? " names " : " name ") + what + " that does not exist");
+      std::string rows = table == "ledger"
+                             ? Plural(n, "ledger entry", "ledger entries")
+                             : Plural(n, "row", "rows") + " of " + table;
+      f.Add(rows + (n == 1 ? " names " : " name ") + what +
+            " that does not exist");
     }
     f.Finish("no row names a queue or term that does not exist");
     return Status::Ok();
   }
 
   Status LoadQueues() {
-    sql::Statement st(db_, "SELECT id, name, documents, tokens, set_prior FROM queues");
+    sql::Statement st(
+        db_, "SELECT id, name, documents, tokens, set_prior FROM queues");
     if (!st.ok()) return Error();
     int rc;
     while ((rc = st.Step()) == SQLITE_ROW) {
@@ -150,7 +155,8 @@ class Checker {
     if (!st.ok()) return Error();
     std::vector<std::pair<std::string, std::string>> rows;
     int rc;
-    while ((rc = st.Step()) == SQLITE_ROW) rows.emplace_back(st.ColumnText(0), st.ColumnText(1));
+    while ((rc = st.Step()) == SQLITE_ROW)
+      rows.emplace_back(st.ColumnText(0), st.ColumnText(1));
     if (rc != SQLITE_DONE) return Error();
     StoreSettings settings;
     std::string why;
@@ -159,13 +165,16 @@ class Checker {
     for (const auto& [id, q] : queues_) {
       if (!q.set_prior) continue;
       if (!(*q.set_prior > 0 && *q.set_prior < 1)) {
-        f.Add("queue " + Quote(q.name) + " has a hand-set prior outside (0, 1)");
+        f.Add("queue " + Quote(q.name) +
+              " has a hand-set prior outside (0, 1)");
       }
       sum += *q.set_prior;
     }
     // The same tolerance as Store::SetPrior.
     if (sum > 1.0 + 1e-12) f.Add("the hand-set priors sum to more than 1");
-    f.Finish("the model settings are complete and usable; hand-set priors sum to at most 1");
+    f.Finish(
+        "the model settings are complete and usable; hand-set priors sum to at "
+        "most 1");
     return Status::Ok();
   }
 
@@ -173,7 +182,8 @@ class Checker {
     Findings f(report_, "queue_names");
     for (const auto& [id, q] : queues_) {
       Status v = ValidateQueueName(q.name);
-      if (!v.ok()) f.Add("queue name " + Quote(q.name) + " is not valid: " + v.message());
+      if (!v.ok())
+        f.Add("queue name " + Quote(q.name) + " is not valid: " + v.message());
     }
     f.Finish("every queue name is valid");
   }
@@ -198,8 +208,9 @@ class Checker {
   Status Ledger() {
     Findings blobs(report_, "ledger_blobs");
     Findings tokens(report_, "ledger_tokens");
-    sql::Statement st(db_,
-                      "SELECT digest, queue_id, tokens, term_counts FROM ledger ORDER BY id");
+    sql::Statement st(
+        db_,
+        "SELECT digest, queue_id, tokens, term_counts FROM ledger ORDER BY id");
     if (!st.ok()) return Error();
     std::vector<TermCount> terms;
     int rc;
@@ -209,13 +220,15 @@ class Checker {
       int64_t queue_id = st.ColumnInt(1);
       int64_t doc_tokens = st.ColumnInt(2);
       auto q = queues_.find(queue_id);
-      QueueRow* queue = q == queues_.end() ? nullptr : &q->second;  // else an orphan
+      QueueRow* queue =
+          q == queues_.end() ? nullptr : &q->second;  // else an orphan
       if (queue) {
         ++queue->ledger_documents;
         queue->ledger_tokens += doc_tokens;
       }
       if (!DecodeTermCounts(st.ColumnBlob(3), &terms)) {
-        blobs.Add("the term counts of ledger entry " + digest + " do not decode" +
+        blobs.Add("the term counts of ledger entry " + digest +
+                  " do not decode" +
                   (queue ? "; the counts of queue " + Quote(queue->name) +
                                " are not compared with the ledger"
                          : std::string()));
@@ -225,7 +238,8 @@ class Checker {
       int64_t sum = 0;
       for (const auto& [text, n] : terms) sum += n;
       if (sum != doc_tokens) {
-        tokens.Add("ledger entry " + digest + " records " + std::to_string(doc_tokens) +
+        tokens.Add("ledger entry " + digest + " records " +
+                   std::to_string(doc_tokens) +
                    " tokens but its term counts sum to " + std::to_string(sum));
       }
       if (!queue) continue;
@@ -239,8 +253,10 @@ class Checker {
       }
     }
     if (rc != SQLITE_DONE) return Error();
-    blobs.Finish("all " + Plural(report_->documents, "ledger entry decodes", "ledger entries decode"));
-    tokens.Finish("each ledger entry's tokens equal the sum of its term counts");
+    blobs.Finish("all " + Plural(report_->documents, "ledger entry decodes",
+                                 "ledger entries decode"));
+    tokens.Finish(
+        "each ledger entry's tokens equal the sum of its term counts");
     return Status::Ok();
   }
 
@@ -249,17 +265,21 @@ class Checker {
   Status Counts() {
     Findings positive(report_, "counts_positive");
     Findings match(report_, "counts_match_ledger");
-    sql::Statement st(db_, "SELECT term_id, queue_id, n FROM counts ORDER BY term_id, queue_id");
+    sql::Statement st(
+        db_,
+        "SELECT term_id, queue_id, n FROM counts ORDER BY term_id, queue_id");
     if (!st.ok()) return Error();
     std::unordered_map<int64_t, int64_t> term_totals;  // of positive counts
     int64_t rows = 0;
     int rc;
     while ((rc = st.Step()) == SQLITE_ROW) {
       ++rows;
-      int64_t term_id = st.ColumnInt(0), queue_id = st.ColumnInt(1), n = st.ColumnInt(2);
+      int64_t term_id = st.ColumnInt(0), queue_id = st.ColumnInt(1),
+              n = st.ColumnInt(2);
       auto t = term_text_.find(term_id);
       auto q = queues_.find(queue_id);
-      if (t == term_text_.end() || q == queues_.end()) continue;  // orphans: foreign_keys
+      if (t == term_text_.end() || q == queues_.end())
+        continue;  // orphans: foreign_keys
       if (n <= 0) {
         positive.Add("the count of term " + Quote(t->second) + " in queue " +
                      Quote(q->second.name) + " is " + std::to_string(n));
@@ -272,9 +292,10 @@ class Checker {
       // A row that is not positive is counts_positive's finding; here it
       // stands for no count at all, as the model reads it.
       if (!q->second.undecodable && ledger != std::max<int64_t>(n, 0)) {
-        match.Add("term " + Quote(t->second) + " in queue " + Quote(q->second.name) +
-                  ": the counts say " + std::to_string(n) +
-                  ", the queue's ledger entries sum to " + std::to_string(ledger));
+        match.Add("term " + Quote(t->second) + " in queue " +
+                  Quote(q->second.name) + ": the counts say " +
+                  std::to_string(n) + ", the queue's ledger entries sum to " +
+                  std::to_string(ledger));
       }
     }
     if (rc != SQLITE_DONE) return Error();
@@ -282,21 +303,25 @@ class Checker {
     std::vector<std::string> no_row;  // sorted, for a stable report
     for (const auto& [key, n] : ledger_sums_) {
       if (queues_.at(key.second).undecodable) continue;
-      no_row.push_back("term " + Quote(term_text_.at(key.first)) + " in queue " +
-                       QueueName(key.second) +
-                       ": the counts have no row, the queue's ledger entries sum to " +
-                       std::to_string(n));
+      no_row.push_back(
+          "term " + Quote(term_text_.at(key.first)) + " in queue " +
+          QueueName(key.second) +
+          ": the counts have no row, the queue's ledger entries sum to " +
+          std::to_string(n));
     }
     std::sort(no_row.begin(), no_row.end());
     for (std::string& line : no_row) match.Add(std::move(line));
     for (const auto& [key, n] : missing_terms_) {
       if (queues_.at(key.second).undecodable) continue;
-      match.Add("term " + Quote(key.first) + " in queue " + QueueName(key.second) +
+      match.Add("term " + Quote(key.first) + " in queue " +
+                QueueName(key.second) +
                 ": not in the vocabulary, the queue's ledger entries sum to " +
                 std::to_string(n));
     }
-    positive.Finish("all " + Plural(rows, "count is", "counts are") + " positive");
-    match.Finish("every count N(q, w) equals the sum of its queue's ledger entries");
+    positive.Finish("all " + Plural(rows, "count is", "counts are") +
+                    " positive");
+    match.Finish(
+        "every count N(q, w) equals the sum of its queue's ledger entries");
 
     Findings vocabulary(report_, "vocabulary");
     for (const auto& [id, text] : term_text_) {
@@ -304,7 +329,8 @@ class Checker {
         vocabulary.Add("term " + Quote(text) + " has no count in any queue");
       }
     }
-    vocabulary.Finish("all " + Plural(report_->terms, "term has", "terms have") +
+    vocabulary.Finish("all " +
+                      Plural(report_->terms, "term has", "terms have") +
                       " a count, so |V| = " + std::to_string(report_->terms));
     return Status::Ok();
   }
@@ -313,12 +339,15 @@ class Checker {
     Findings f(report_, "queue_totals");
     for (const auto& [id, q] : queues_) {
       if (q.documents != q.ledger_documents) {
-        f.Add("queue " + Quote(q.name) + " records " + std::to_string(q.documents) +
-              " documents but the ledger holds " + std::to_string(q.ledger_documents));
+        f.Add("queue " + Quote(q.name) + " records " +
+              std::to_string(q.documents) + " documents but the ledger holds " +
+              std::to_string(q.ledger_documents));
       }
       if (q.tokens != q.ledger_tokens) {
-        f.Add("queue " + Quote(q.name) + " records " + std::to_string(q.tokens) +
-              " tokens but its ledger entries hold " + std::to_string(q.ledger_tokens));
+        f.Add("queue " + Quote(q.name) + " records " +
+              std::to_string(q.tokens) +
+              " tokens but its ledger entries hold " +
+              std::to_string(q.ledger_tokens));
       }
     }
     f.Finish("each queue's documents and tokens equal its ledger entries'");
@@ -329,7 +358,8 @@ class Checker {
   std::map<int64_t, QueueRow> queues_;  // by id
   std::unordered_map<std::string, int64_t> term_id_;
   std::map<int64_t, std::string> term_text_;
-  std::unordered_map<std::pair<int64_t, int64_t>, int64_t, PairHash> ledger_sums_;
+  std::unordered_map<std::pair<int64_t, int64_t>, int64_t, PairHash>
+      ledger_sums_;
   std::map<std::pair<std::string, int64_t>, int64_t> missing_terms_;
 };
 
@@ -349,17 +379,20 @@ Status CheckStore(const std::string& path, CheckReport* report) {
   Status s = OpenStoreFile(path, &db, &version);
   if (!s.ok()) return s;
   s = ConfigureStoreConnection(db.get());
-  if (s.ok() && version < SchemaVersion()) s = Migrate(db.get(), SchemaVersion());
+  if (s.ok() && version < SchemaVersion())
+    s = Migrate(db.get(), SchemaVersion());
   if (!s.ok()) return Status::IoError(path + ": " + s.message());
   sql::ReadTransaction read(db.get());
-  if (!read.status().ok()) return Status::IoError(path + ": " + read.status().message());
+  if (!read.status().ok())
+    return Status::IoError(path + ": " + read.status().message());
   Checker checker(db.get(), report);
   s = checker.Run();
   if (!s.ok()) {
     if (s.code() == Status::Code::kCorruption) {
-      return Status::Corruption(path + ": too damaged to check: " + s.message());
+      return Status::Corruption(path +
+                                ": too damaged to check: " + s.message());
     }
-    return Status(Status::IoError(path + ": " + s.message()));
+    return Status::IoError(path + ": " + s.message());
   }
   return Status::Ok();
 }

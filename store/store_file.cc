@@ -23,29 +23,33 @@ Status PragmaInt(sqlite3* db, const char* pragma, int64_t* v) {
 
 Status ConfigureStoreConnection(sqlite3* db) {
   sqlite3_busy_timeout(db, kBusyTimeoutMs);
-  for (const char* pragma : {"PRAGMA foreign_keys = ON", "PRAGMA synchronous = FULL"}) {
+  for (const char* pragma :
+       {"PRAGMA foreign_keys = ON", "PRAGMA synchronous = FULL"}) {
     Status s = sql::Exec(db, pragma);
     if (!s.ok()) return s;
   }
   return Status::Ok();
 }
 
-Status OpenStoreFile(const std::string& path, sql::DbHandle* db, int64_t* version) {
+Status OpenStoreFile(const std::string& path, sql::DbHandle* db,
+                     int64_t* version) {
   struct stat st;
   if (::stat(path.c_str(), &st) != 0) {
     if (errno == ENOENT) {
-      return Status::NotFound(path + ": no chute store here (create one with 'chute init')");
+      return Status::NotFound(
+          path + ": no chute store here (create one with 'chute init')");
     }
     return Status::IoError(path + ": " + std::strerror(errno));
   }
   if (!S_ISREG(st.st_mode)) {
-    return Status::InvalidArgument(path + ": not a chute store (not a regular file)");
+    return Status::InvalidArgument(path +
+                                   ": not a chute store (not a regular file)");
   }
   sqlite3* raw = nullptr;
   // One connection per thread (a Store is not shared), so SQLite's own
   // mutexes are not needed.
-  int rc = sqlite3_open_v2(path.c_str(), &raw, SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOMUTEX,
-                           nullptr);
+  int rc = sqlite3_open_v2(
+      path.c_str(), &raw, SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOMUTEX, nullptr);
   db->reset(raw);
   if (rc != SQLITE_OK) {
     return Status::IoError(path + ": cannot open: " +
@@ -58,18 +62,20 @@ Status OpenStoreFile(const std::string& path, sql::DbHandle* db, int64_t* versio
   if (s.ok()) s = PragmaInt(raw, "PRAGMA user_version", version);
   if (!s.ok()) {
     if (s.code() == Status::Code::kCorruption) {
-      return Status::Corruption(path + ": not a chute store (not an SQLite database, or damaged)");
+      return Status::Corruption(
+          path + ": not a chute store (not an SQLite database, or damaged)");
     }
     return Status::IoError(path + ": " + s.message());
   }
   if (app_id != kApplicationId) {
-    return Status::Corruption(path + ": not a chute store (an SQLite file of another program)");
+    return Status::Corruption(
+        path + ": not a chute store (an SQLite file of another program)");
   }
   if (*version > SchemaVersion()) {
     return Status::InvalidArgument(
         path + ": store has schema version " + std::to_string(*version) +
-        ", newer than this chute understands (" + std::to_string(SchemaVersion()) +
-        "); use a newer chute");
+        ", newer than this chute understands (" +
+        std::to_string(SchemaVersion()) + "); use a newer chute");
   }
   return Status::Ok();
 }

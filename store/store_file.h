@@ -17,7 +17,8 @@ namespace chute {
 // the store's schema version. Nothing is changed in the file. Fails with a
 // one-line message that names the file: NotFound, Corruption for a file
 // that is not a chute store, InvalidArgument for a newer schema.
-Status OpenStoreFile(const std::string& path, sql::DbHandle* db, int64_t* version);
+Status OpenStoreFile(const std::string& path, sql::DbHandle* db,
+                     int64_t* version);
 
 // The connection settings every store connection applies: busy timeout,
 // foreign keys on, synchronous FULL.

@@ -21,30 +21,35 @@ bool ParseInt(std::string_view s, int32_t* v) {
 
 }  // namespace
 
-bool DecodeSettings(const std::vector<std::pair<std::string, std::string>>& rows,
-                    StoreSettings* out, std::string* why) {
+bool DecodeSettings(
+    const std::vector<std::pair<std::string, std::string>>& rows,
+    StoreSettings* out, std::string* why) {
   StoreSettings s;
   std::set<std::string> seen;
   auto bad = [&](const std::string& key, const std::string& value) {
-    *why = "setting " + key + " has the value '" + value + "', which chute cannot use";
+    *why = "setting " + key + " has the value '" + value +
+           "', which chute cannot use";
     return false;
   };
   for (const auto& [key, value] : rows) {
     bool known = true, good = true;
     if (key == "alpha") {
-      good = ParseDouble(value, &s.model.alpha) && std::isfinite(s.model.alpha) &&
-             s.model.alpha > 0;
+      good = ParseDouble(value, &s.model.alpha) &&
+             std::isfinite(s.model.alpha) && s.model.alpha > 0;
     } else if (key == "prior") {
       good = value == "learned" || value == "uniform";
-      s.model.prior = value == "uniform" ? PriorMode::kUniform : PriorMode::kLearned;
+      s.model.prior =
+          value == "uniform" ? PriorMode::kUniform : PriorMode::kLearned;
     } else if (key == "bigrams") {
       good = value == "on" || value == "off";
       s.tokenizer.bigrams = value == "on";
     } else if (key == "numbers") {
       good = value == "keep" || value == "fold";
-      s.tokenizer.numbers = value == "fold" ? NumberMode::kFold : NumberMode::kKeep;
+      s.tokenizer.numbers =
+          value == "fold" ? NumberMode::kFold : NumberMode::kKeep;
     } else if (key == "min_length") {
-      good = ParseInt(value, &s.tokenizer.min_length) && s.tokenizer.min_length >= 1;
+      good = ParseInt(value, &s.tokenizer.min_length) &&
+             s.tokenizer.min_length >= 1;
     } else if (key == "max_length") {
       good = ParseInt(value, &s.tokenizer.max_length);
     } else {
@@ -57,7 +62,8 @@ bool DecodeSettings(const std::vector<std::pair<std::string, std::string>>& rows
       return false;
     }
   }
-  for (const char* key : {"alpha", "prior", "bigrams", "numbers", "min_length", "max_length"}) {
+  for (const char* key :
+       {"alpha", "prior", "bigrams", "numbers", "min_length", "max_length"}) {
     if (seen.count(key) == 0) {
       *why = std::string("setting ") + key + " is missing";
       return false;
@@ -65,7 +71,8 @@ bool DecodeSettings(const std::vector<std::pair<std::string, std::string>>& rows
   }
   if (s.tokenizer.max_length < s.tokenizer.min_length) {
     *why = "setting max_length (" + std::to_string(s.tokenizer.max_length) +
-           ") is below min_length (" + std::to_string(s.tokenizer.min_length) + ")";
+           ") is below min_length (" + std::to_string(s.tokenizer.min_length) +
+           ")";
     return false;
   }
   *out = s;

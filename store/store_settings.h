@@ -21,8 +21,9 @@ struct StoreSettings {
 // a value chute cannot use (alpha not a positive number, an unknown word,
 // a minimum length below 1 or a maximum below the minimum). Keys chute does
 // not know are ignored.
-bool DecodeSettings(const std::vector<std::pair<std::string, std::string>>& rows,
-                    StoreSettings* out, std::string* why);
+bool DecodeSettings(
+    const std::vector<std::pair<std::string, std::string>>& rows,
+    StoreSettings* out, std::string* why);
 
 }  // namespace chute
 

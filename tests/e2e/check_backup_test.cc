@@ -18,11 +18,13 @@ namespace {
 
 using nlohmann::json;
 
-const std::string kCorpus = std::string(CHUTE_SOURCE_DIR) + "/corpora/port-authority";
+const std::string kCorpus =
+    std::string(CHUTE_SOURCE_DIR) + "/corpora/port-authority";
 
 class CheckBackupTest : public ::testing::Test {
  protected:
-  RunResult Chute(std::vector<std::string> args, const std::string& input = "") {
+  RunResult Chute(std::vector<std::string> args,
+                  const std::string& input = "") {
     return RunChute(args, dir_.path(), input);
   }
   // A store s.db with a few documents in two queues.
@@ -39,8 +41,9 @@ class CheckBackupTest : public ::testing::Test {
     sqlite3* raw = nullptr;
     ASSERT_EQ(sqlite3_open((dir_.path() + "/" + db).c_str(), &raw), SQLITE_OK);
     char* error = nullptr;
-    int rc = sqlite3_exec(raw, ("PRAGMA ignore_check_constraints = ON;" + sql).c_str(), nullptr,
-                          nullptr, &error);
+    int rc = sqlite3_exec(
+        raw, ("PRAGMA ignore_check_constraints = ON;" + sql).c_str(), nullptr,
+        nullptr, &error);
     EXPECT_EQ(rc, SQLITE_OK) << (error ? error : "");
     sqlite3_free(error);
     sqlite3_close(raw);
@@ -87,7 +90,8 @@ TEST_F(CheckBackupTest, CheckJsonlHasOneObjectPerCheckThenTheSummary) {
   EXPECT_EQ(checks.size(), 11u);
   json last = json::parse(lines.back());
   EXPECT_EQ(last["check"], "summary");
-  EXPECT_EQ(last["detail"], "store is consistent: 3 documents, 2 queues, 14 terms");
+  EXPECT_EQ(last["detail"],
+            "store is consistent: 3 documents, 2 queues, 14 terms");
 }
 
 TEST_F(CheckBackupTest, CheckOfADamagedStorePrintsTheFindingAndExitsOne) {
@@ -96,7 +100,8 @@ TEST_F(CheckBackupTest, CheckOfADamagedStorePrintsTheFindingAndExitsOne) {
   RunResult r = Chute({"check", "--db", "s.db"});
   EXPECT_EQ(r.exit_code, 1);
   EXPECT_EQ(r.out,
-            "queue_totals: queue 'freight' records 5 documents but the ledger holds 1\n"
+            "queue_totals: queue 'freight' records 5 documents but the ledger "
+            "holds 1\n"
             "store is NOT consistent: 3 documents, 2 queues, 14 terms\n");
   RunResult j = Chute({"check", "--db", "s.db", "--format", "jsonl"});
   EXPECT_EQ(j.exit_code, 1);
@@ -105,7 +110,8 @@ TEST_F(CheckBackupTest, CheckOfADamagedStorePrintsTheFindingAndExitsOne) {
     json o = json::parse(line);
     if (!o["ok"].get<bool>()) {
       ++findings;
-      EXPECT_TRUE(o["check"] == "queue_totals" || o["check"] == "summary") << line;
+      EXPECT_TRUE(o["check"] == "queue_totals" || o["check"] == "summary")
+          << line;
     }
   }
   EXPECT_EQ(findings, 2);
@@ -123,19 +129,24 @@ TEST_F(CheckBackupTest, CheckRefusesWhatIsNotAStoreInOneLine) {
   RunResult junk = Chute({"check", "--db", "junk.db"});
   EXPECT_EQ(junk.exit_code, 1);
   EXPECT_TRUE(OneLine(junk.err)) << junk.err;
-  EXPECT_NE(junk.err.find("junk.db: not a chute store"), std::string::npos) << junk.err;
-  EXPECT_EQ(Chute({"check", "--db", "junk.db", "--format", "yaml"}).exit_code, 2);
+  EXPECT_NE(junk.err.find("junk.db: not a chute store"), std::string::npos)
+      << junk.err;
+  EXPECT_EQ(Chute({"check", "--db", "junk.db", "--format", "yaml"}).exit_code,
+            2);
 }
 
 TEST_F(CheckBackupTest, BackupIsAConsistentStoreOfMode0600) {
   SmallStore();
   RunResult r = Chute({"backup", "--db", "s.db", "copy.db"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
-  EXPECT_EQ(r.out.rfind("backed up s.db to copy.db: 3 documents, 2 queues, ", 0), 0u) << r.out;
+  EXPECT_EQ(
+      r.out.rfind("backed up s.db to copy.db: 3 documents, 2 queues, ", 0), 0u)
+      << r.out;
   EXPECT_EQ(Mode("copy.db"), 0600u);
   RunResult check = Chute({"check", "--db", "copy.db"});
   EXPECT_EQ(check.exit_code, 0) << check.out;
-  EXPECT_EQ(check.out, "store is consistent: 3 documents, 2 queues, 14 terms\n");
+  EXPECT_EQ(check.out,
+            "store is consistent: 3 documents, 2 queues, 14 terms\n");
 }
 
 TEST_F(CheckBackupTest, BackupRefusesToOverwriteWithoutForce) {
@@ -144,14 +155,17 @@ TEST_F(CheckBackupTest, BackupRefusesToOverwriteWithoutForce) {
   RunResult r = Chute({"backup", "--db", "s.db", "copy.db"});
   EXPECT_EQ(r.exit_code, 1);
   EXPECT_TRUE(OneLine(r.err)) << r.err;
-  EXPECT_NE(r.err.find("copy.db: already exists; add --force"), std::string::npos) << r.err;
+  EXPECT_NE(r.err.find("copy.db: already exists; add --force"),
+            std::string::npos)
+      << r.err;
   RunResult forced = Chute({"backup", "--db", "s.db", "copy.db", "--force"});
   EXPECT_EQ(forced.exit_code, 0) << forced.err;
   EXPECT_EQ(Chute({"check", "--db", "copy.db"}).exit_code, 0);
   RunResult self = Chute({"backup", "--db", "s.db", "s.db", "--force"});
   EXPECT_EQ(self.exit_code, 1);
   EXPECT_TRUE(OneLine(self.err)) << self.err;
-  EXPECT_EQ(Chute({"backup", "--db", "s.db"}).exit_code, 2);  // FILE is required
+  EXPECT_EQ(Chute({"backup", "--db", "s.db"}).exit_code,
+            2);  // FILE is required
 }
 
 // Backups taken while another process learns batch after batch: each copy
@@ -162,10 +176,11 @@ TEST_F(CheckBackupTest, BackupWhileAnotherProcessLearns) {
   ASSERT_EQ(Chute({"init", "--db", "s.db"}).exit_code, 0);
   for (int b = 0; b < kBatches; ++b) {
     for (int i = 0; i < kPerBatch; ++i) {
-      dir_.Write("b" + std::to_string(b) + "/" + (i % 2 ? "permits" : "freight") + "/" +
-                     std::to_string(i) + ".txt",
-                 "batch " + std::to_string(b) + " document " + std::to_string(i) +
-                     (i % 2 ? " berth permit crane" : " lorry timber gate"));
+      dir_.Write(
+          "b" + std::to_string(b) + "/" + (i % 2 ? "permits" : "freight") +
+              "/" + std::to_string(i) + ".txt",
+          "batch " + std::to_string(b) + " document " + std::to_string(i) +
+              (i % 2 ? " berth permit crane" : " lorry timber gate"));
     }
   }
   pid_t learner = fork();
@@ -173,8 +188,9 @@ TEST_F(CheckBackupTest, BackupWhileAnotherProcessLearns) {
   if (learner == 0) {
     int failed = 0;
     for (int b = 0; b < kBatches; ++b) {
-      RunResult r = RunChute({"learn", "--db", "s.db", "--tree", "b" + std::to_string(b)},
-                             dir_.path());
+      RunResult r =
+          RunChute({"learn", "--db", "s.db", "--tree", "b" + std::to_string(b)},
+                   dir_.path());
       failed += r.exit_code != 0;
     }
     _exit(failed);
@@ -201,7 +217,8 @@ TEST_F(CheckBackupTest, BackupWhileAnotherProcessLearns) {
       break;
     }
   }
-  EXPECT_EQ(*seen.rbegin(), kBatches * kPerBatch);  // the last copy, after the learner
+  EXPECT_EQ(*seen.rbegin(),
+            kBatches * kPerBatch);  // the last copy, after the learner
   // How many distinct states the copies caught (timing-dependent; recorded,
   // not asserted).
   RecordProperty("distinct_copies", static_cast<int>(seen.size()));
@@ -212,8 +229,12 @@ TEST_F(CheckBackupTest, BackupWhileAnotherProcessLearns) {
 // over a store holding other documents; routing gives identical output.
 TEST_F(CheckBackupTest, RestoreThenRouteGivesTheOriginalOutput) {
   ASSERT_EQ(Chute({"init", "--db", "harbour.db"}).exit_code, 0);
-  ASSERT_EQ(Chute({"learn", "--db", "harbour.db", "--tree", kCorpus + "/labelled"}).exit_code, 0);
-  const std::vector<std::string> route = {"route", kCorpus + "/inbox", "--format", "jsonl"};
+  ASSERT_EQ(
+      Chute({"learn", "--db", "harbour.db", "--tree", kCorpus + "/labelled"})
+          .exit_code,
+      0);
+  const std::vector<std::string> route = {"route", kCorpus + "/inbox",
+                                          "--format", "jsonl"};
   auto Route = [&](const std::string& db) {
     std::vector<std::string> args = route;
     args.insert(args.end(), {"--db", db});
@@ -223,11 +244,14 @@ TEST_F(CheckBackupTest, RestoreThenRouteGivesTheOriginalOutput) {
   };
   const std::string original = Route("harbour.db");
   ASSERT_FALSE(original.empty());
-  ASSERT_EQ(Chute({"backup", "--db", "harbour.db", "harbour-copy.db"}).exit_code, 0);
+  ASSERT_EQ(
+      Chute({"backup", "--db", "harbour.db", "harbour-copy.db"}).exit_code, 0);
 
   RunResult fresh = Chute({"restore", "--db", "new.db", "harbour-copy.db"});
   ASSERT_EQ(fresh.exit_code, 0) << fresh.err;
-  EXPECT_EQ(fresh.out, "restored harbour-copy.db as the new store new.db: 476 documents, 8 queues\n");
+  EXPECT_EQ(fresh.out,
+            "restored harbour-copy.db as the new store new.db: 476 documents, "
+            "8 queues\n");
   EXPECT_EQ(Mode("new.db"), 0600u);
   EXPECT_EQ(Route("new.db"), original);
   EXPECT_EQ(Chute({"check", "--db", "new.db"}).exit_code, 0);
@@ -236,11 +260,14 @@ TEST_F(CheckBackupTest, RestoreThenRouteGivesTheOriginalOutput) {
   RunResult refused = Chute({"restore", "--db", "other.db", "harbour-copy.db"});
   EXPECT_EQ(refused.exit_code, 1);
   EXPECT_TRUE(OneLine(refused.err)) << refused.err;
-  EXPECT_NE(refused.err.find("holds 3 learned documents"), std::string::npos) << refused.err;
-  RunResult forced = Chute({"restore", "--db", "other.db", "harbour-copy.db", "--force"});
+  EXPECT_NE(refused.err.find("holds 3 learned documents"), std::string::npos)
+      << refused.err;
+  RunResult forced =
+      Chute({"restore", "--db", "other.db", "harbour-copy.db", "--force"});
   ASSERT_EQ(forced.exit_code, 0) << forced.err;
   EXPECT_EQ(forced.out,
-            "restored harbour-copy.db into other.db: 476 documents, 8 queues (it held 3 "
+            "restored harbour-copy.db into other.db: 476 documents, 8 queues "
+            "(it held 3 "
             "documents)\n");
   EXPECT_EQ(Route("other.db"), original);
 }
@@ -253,10 +280,13 @@ TEST_F(CheckBackupTest, RestoreRefusesBadFilesInOneLine) {
     std::string says;
   };
   const Case cases[] = {
-      {{"restore", "--db", "s.db", "junk.db", "--force"}, "junk.db: not a chute store"},
-      {{"restore", "--db", "s.db", "none.db", "--force"}, "none.db: no chute store here"},
+      {{"restore", "--db", "s.db", "junk.db", "--force"},
+       "junk.db: not a chute store"},
+      {{"restore", "--db", "s.db", "none.db", "--force"},
+       "none.db: no chute store here"},
       {{"restore", "--db", "s.db", "s.db", "--force"}, "is the store itself"},
-      {{"restore", "--db", "junk.db", "s.db", "--force"}, "junk.db: not a chute store"},
+      {{"restore", "--db", "junk.db", "s.db", "--force"},
+       "junk.db: not a chute store"},
   };
   for (const Case& c : cases) {
     RunResult r = Chute(c.args);

@@ -85,7 +85,8 @@ TEST(BackupTest, ExistingFileIsKeptWithoutReplace) {
   EXPECT_FALSE(s.ok());
   EXPECT_NE(s.message().find("--force"), std::string::npos) << s.message();
   EXPECT_EQ(ReadFile(dir.File("copy.db")), "yesterday");
-  ASSERT_TRUE(BackupStore(dir.File("a.db"), dir.File("copy.db"), true, &r).ok());
+  ASSERT_TRUE(
+      BackupStore(dir.File("a.db"), dir.File("copy.db"), true, &r).ok());
   EXPECT_EQ(Documents(dir.File("copy.db")), 4);
 }
 
@@ -102,8 +103,9 @@ TEST(BackupTest, NotAStoreIsRefused) {
   TempDir dir;
   WriteFile(dir.File("a.db"), "plain words");
   BackupResult r;
-  EXPECT_EQ(BackupStore(dir.File("a.db"), dir.File("copy.db"), false, &r).code(),
-            Status::Code::kCorruption);
+  EXPECT_EQ(
+      BackupStore(dir.File("a.db"), dir.File("copy.db"), false, &r).code(),
+      Status::Code::kCorruption);
   EXPECT_EQ(dir.Entries(), std::set<std::string>{"a.db"});
 }
 
@@ -111,7 +113,8 @@ TEST(RestoreTest, CreatesAMissingStoreWithMode0600) {
   TempDir dir;
   MakeStore(dir.File("a.db"), 0, 6);
   BackupResult b;
-  ASSERT_TRUE(BackupStore(dir.File("a.db"), dir.File("copy.db"), false, &b).ok());
+  ASSERT_TRUE(
+      BackupStore(dir.File("a.db"), dir.File("copy.db"), false, &b).ok());
   RestoreResult r;
   Status s = RestoreStore(dir.File("copy.db"), dir.File("new.db"), false, &r);
   ASSERT_TRUE(s.ok()) << s.message();
@@ -128,7 +131,8 @@ TEST(RestoreTest, StoreWithDocumentsIsReplacedOnlyWhenAsked) {
   RestoreResult r;
   Status s = RestoreStore(dir.File("a.db"), dir.File("b.db"), false, &r);
   EXPECT_EQ(s.code(), Status::Code::kInvalidArgument);
-  EXPECT_NE(s.message().find("holds 3 learned documents"), std::string::npos) << s.message();
+  EXPECT_NE(s.message().find("holds 3 learned documents"), std::string::npos)
+      << s.message();
   EXPECT_EQ(Documents(dir.File("b.db")), 3);
   s = RestoreStore(dir.File("a.db"), dir.File("b.db"), true, &r);
   ASSERT_TRUE(s.ok()) << s.message();
@@ -159,13 +163,16 @@ TEST(RestoreTest, RefusesItselfAFileThatIsNotAStoreAndAMissingFile) {
   RestoreResult r;
   EXPECT_EQ(RestoreStore(dir.File("a.db"), dir.File("a.db"), true, &r).code(),
             Status::Code::kInvalidArgument);
-  EXPECT_EQ(RestoreStore(dir.File("notes.txt"), dir.File("a.db"), true, &r).code(),
-            Status::Code::kCorruption);
-  EXPECT_EQ(RestoreStore(dir.File("none.db"), dir.File("a.db"), true, &r).code(),
-            Status::Code::kNotFound);
+  EXPECT_EQ(
+      RestoreStore(dir.File("notes.txt"), dir.File("a.db"), true, &r).code(),
+      Status::Code::kCorruption);
+  EXPECT_EQ(
+      RestoreStore(dir.File("none.db"), dir.File("a.db"), true, &r).code(),
+      Status::Code::kNotFound);
   // Nor onto a file that is not a store: restore replaces only a store.
-  EXPECT_EQ(RestoreStore(dir.File("a.db"), dir.File("notes.txt"), true, &r).code(),
-            Status::Code::kCorruption);
+  EXPECT_EQ(
+      RestoreStore(dir.File("a.db"), dir.File("notes.txt"), true, &r).code(),
+      Status::Code::kCorruption);
   EXPECT_EQ(ReadFile(dir.File("notes.txt")), "plain words");
   EXPECT_EQ(Documents(dir.File("a.db")), 2);
 }

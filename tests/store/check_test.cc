@@ -23,8 +23,8 @@ using testing_files::TempDir;
 using testing_files::WriteFile;
 
 const std::set<std::string> kAllChecks = {
-    "sqlite_integrity", "foreign_keys",    "settings",     "queue_names",
-    "ledger_blobs",     "ledger_tokens",   "counts_positive", "vocabulary",
+    "sqlite_integrity", "foreign_keys",       "settings",        "queue_names",
+    "ledger_blobs",     "ledger_tokens",      "counts_positive", "vocabulary",
     "queue_totals",     "counts_match_ledger"};
 
 std::string Digest(unsigned n) {
@@ -43,7 +43,8 @@ class CheckTest : public ::testing::Test {
     // "permit" occurs in both queues; "harbour" and "lorry" in one each.
     batch.Add(Digest(1), "permits", "a.txt", {"permit", "harbour", "permit"});
     batch.Add(Digest(2), "permits", "b.txt", {"permit", "berth"});
-    batch.Add(Digest(3), "freight", "c.txt", {"lorry", "permit", "lorry", "crane"});
+    batch.Add(Digest(3), "freight", "c.txt",
+              {"lorry", "permit", "lorry", "crane"});
     LearnResult result;
     ASSERT_TRUE(store->Learn(batch, "2026-05-01T09:30:00Z", &result).ok());
     ASSERT_EQ(result.learned, 3);
@@ -99,7 +100,8 @@ TEST_F(CheckTest, ConsistentStorePassesEveryCheckOnce) {
     EXPECT_FALSE(l.detail.empty());
     names.insert(l.check);
   }
-  EXPECT_EQ(names, std::multiset<std::string>(kAllChecks.begin(), kAllChecks.end()));
+  EXPECT_EQ(names,
+            std::multiset<std::string>(kAllChecks.begin(), kAllChecks.end()));
   EXPECT_EQ(report.documents, 3);
   EXPECT_EQ(report.queues, 2);
   EXPECT_EQ(report.terms, 5);  // permit harbour berth lorry crane
@@ -117,24 +119,31 @@ TEST_F(CheckTest, FileThatIsNotAStoreIsAnErrorNotAReport) {
   CheckReport report;
   Status s = CheckStore(dir_.File("notes.txt"), &report);
   EXPECT_EQ(s.code(), Status::Code::kCorruption);
-  EXPECT_NE(s.message().find("not a chute store"), std::string::npos) << s.message();
+  EXPECT_NE(s.message().find("not a chute store"), std::string::npos)
+      << s.message();
 }
 
 TEST_F(CheckTest, IndexThatDisagreesWithItsTableFailsSqliteIntegrity) {
   // Redefine the index over another column: its entries no longer match the
   // rows (the writable_schema route of SQLite's own tests).
-  Damage("PRAGMA writable_schema = ON; UPDATE sqlite_schema SET sql = "
-         "'CREATE INDEX ledger_by_queue ON ledger(source)' WHERE name = 'ledger_by_queue'");
+  Damage(
+      "PRAGMA writable_schema = ON; UPDATE sqlite_schema SET sql = "
+      "'CREATE INDEX ledger_by_queue ON ledger(source)' WHERE name = "
+      "'ledger_by_queue'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"sqlite_integrity"}) << Findings(report);
+  EXPECT_EQ(Failing(report), std::set<std::string>{"sqlite_integrity"})
+      << Findings(report);
 }
 
 TEST_F(CheckTest, CountNamingAMissingQueueIsAnOrphan) {
-  Damage("INSERT INTO counts(term_id, queue_id, n) "
-         "SELECT id, 999, 4 FROM terms WHERE text = 'permit'");
+  Damage(
+      "INSERT INTO counts(term_id, queue_id, n) "
+      "SELECT id, 999, 4 FROM terms WHERE text = 'permit'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"foreign_keys"}) << Findings(report);
-  EXPECT_NE(Findings(report).find("1 row of counts names a queue that does not exist"),
+  EXPECT_EQ(Failing(report), std::set<std::string>{"foreign_keys"})
+      << Findings(report);
+  EXPECT_NE(Findings(report).find(
+                "1 row of counts names a queue that does not exist"),
             std::string::npos)
       << Findings(report);
 }
@@ -142,61 +151,73 @@ TEST_F(CheckTest, CountNamingAMissingQueueIsAnOrphan) {
 TEST_F(CheckTest, UnusableSettingFailsSettings) {
   Damage("UPDATE settings SET value = 'sometimes' WHERE key = 'bigrams'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"settings"}) << Findings(report);
+  EXPECT_EQ(Failing(report), std::set<std::string>{"settings"})
+      << Findings(report);
   EXPECT_NE(Findings(report).find("bigrams"), std::string::npos);
 }
 
 TEST_F(CheckTest, MissingSettingFailsSettings) {
   Damage("DELETE FROM settings WHERE key = 'alpha'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"settings"}) << Findings(report);
+  EXPECT_EQ(Failing(report), std::set<std::string>{"settings"})
+      << Findings(report);
 }
 
 TEST_F(CheckTest, HandSetPriorsAboveOneFailSettings) {
   Damage("UPDATE queues SET set_prior = 0.6");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"settings"}) << Findings(report);
+  EXPECT_EQ(Failing(report), std::set<std::string>{"settings"})
+      << Findings(report);
   EXPECT_NE(Findings(report).find("sum to more than 1"), std::string::npos);
 }
 
 TEST_F(CheckTest, InvalidQueueNameFailsQueueNames) {
   Damage("UPDATE queues SET name = '_review' WHERE name = 'freight'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"queue_names"}) << Findings(report);
+  EXPECT_EQ(Failing(report), std::set<std::string>{"queue_names"})
+      << Findings(report);
 }
 
 TEST_F(CheckTest, LedgerBlobThatDoesNotDecodeFailsLedgerBlobs) {
-  Damage("UPDATE ledger SET term_counts = x'ff' WHERE digest = '" + Digest(2) + "'");
+  Damage("UPDATE ledger SET term_counts = x'ff' WHERE digest = '" + Digest(2) +
+         "'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"ledger_blobs"}) << Findings(report);
+  EXPECT_EQ(Failing(report), std::set<std::string>{"ledger_blobs"})
+      << Findings(report);
   EXPECT_NE(Findings(report).find(Digest(2)), std::string::npos);
 }
 
 TEST_F(CheckTest, LedgerTokensUnlikeItsTermsFailLedgerTokens) {
   // The entry and its queue both claim one more token, so only the entry's
   // own sum disagrees.
-  Damage("UPDATE ledger SET tokens = tokens + 1 WHERE digest = '" + Digest(3) + "';"
+  Damage("UPDATE ledger SET tokens = tokens + 1 WHERE digest = '" + Digest(3) +
+         "';"
          "UPDATE queues SET tokens = tokens + 1 WHERE name = 'freight'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"ledger_tokens"}) << Findings(report);
+  EXPECT_EQ(Failing(report), std::set<std::string>{"ledger_tokens"})
+      << Findings(report);
 }
 
 TEST_F(CheckTest, ZeroCountRowFailsCountsPositive) {
   // 'lorry' was never learned for permits; a zero row for it breaks chute's
   // rule (no zero rows) and the table's CHECK (n > 0), which SQLite's own
   // integrity_check reports as well.
-  Damage("INSERT INTO counts(term_id, queue_id, n) SELECT t.id, q.id, 0 "
-         "FROM terms t, queues q WHERE t.text = 'lorry' AND q.name = 'permits'");
+  Damage(
+      "INSERT INTO counts(term_id, queue_id, n) SELECT t.id, q.id, 0 "
+      "FROM terms t, queues q WHERE t.text = 'lorry' AND q.name = 'permits'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), (std::set<std::string>{"counts_positive", "sqlite_integrity"}))
+  EXPECT_EQ(Failing(report),
+            (std::set<std::string>{"counts_positive", "sqlite_integrity"}))
       << Findings(report);
 }
 
 TEST_F(CheckTest, NegativeCountRowFailsCountsPositive) {
-  Damage("INSERT INTO counts(term_id, queue_id, n) SELECT t.id, q.id, -2 "
-         "FROM terms t, queues q WHERE t.text = 'harbour' AND q.name = 'freight'");
+  Damage(
+      "INSERT INTO counts(term_id, queue_id, n) SELECT t.id, q.id, -2 "
+      "FROM terms t, queues q WHERE t.text = 'harbour' AND q.name = 'freight'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), (std::set<std::string>{"counts_positive", "sqlite_integrity"}))
+  EXPECT_EQ(Failing(report),
+            (std::set<std::string>{"counts_positive", "sqlite_integrity"}))
       << Findings(report);
   EXPECT_NE(Findings(report).find("is -2"), std::string::npos);
 }
@@ -204,38 +225,49 @@ TEST_F(CheckTest, NegativeCountRowFailsCountsPositive) {
 TEST_F(CheckTest, TermWithoutCountsFailsVocabulary) {
   Damage("INSERT INTO terms(text) VALUES('ghost')");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"vocabulary"}) << Findings(report);
+  EXPECT_EQ(Failing(report), std::set<std::string>{"vocabulary"})
+      << Findings(report);
   EXPECT_NE(Findings(report).find("'ghost'"), std::string::npos);
 }
 
 TEST_F(CheckTest, QueueDocumentsUnlikeTheLedgerFailQueueTotals) {
   Damage("UPDATE queues SET documents = documents + 1 WHERE name = 'permits'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"queue_totals"}) << Findings(report);
+  EXPECT_EQ(Failing(report), std::set<std::string>{"queue_totals"})
+      << Findings(report);
 }
 
 TEST_F(CheckTest, QueueTokensUnlikeTheLedgerFailQueueTotals) {
   Damage("UPDATE queues SET tokens = tokens - 1 WHERE name = 'freight'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"queue_totals"}) << Findings(report);
+  EXPECT_EQ(Failing(report), std::set<std::string>{"queue_totals"})
+      << Findings(report);
 }
 
 TEST_F(CheckTest, CountUnlikeTheLedgerFailsCountsMatchLedger) {
-  Damage("UPDATE counts SET n = n + 1 WHERE term_id = (SELECT id FROM terms WHERE text = "
-         "'permit') AND queue_id = (SELECT id FROM queues WHERE name = 'freight')");
+  Damage(
+      "UPDATE counts SET n = n + 1 WHERE term_id = (SELECT id FROM terms WHERE "
+      "text = "
+      "'permit') AND queue_id = (SELECT id FROM queues WHERE name = "
+      "'freight')");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"counts_match_ledger"}) << Findings(report);
-  EXPECT_NE(Findings(report).find("the counts say 2, the queue's ledger entries sum to 1"),
+  EXPECT_EQ(Failing(report), std::set<std::string>{"counts_match_ledger"})
+      << Findings(report);
+  EXPECT_NE(Findings(report).find(
+                "the counts say 2, the queue's ledger entries sum to 1"),
             std::string::npos)
       << Findings(report);
 }
 
 TEST_F(CheckTest, CountRowMissingFailsCountsMatchLedger) {
   // 'permit' keeps its count in permits, so the vocabulary stays whole.
-  Damage("DELETE FROM counts WHERE term_id = (SELECT id FROM terms WHERE text = 'permit') "
-         "AND queue_id = (SELECT id FROM queues WHERE name = 'freight')");
+  Damage(
+      "DELETE FROM counts WHERE term_id = (SELECT id FROM terms WHERE text = "
+      "'permit') "
+      "AND queue_id = (SELECT id FROM queues WHERE name = 'freight')");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"counts_match_ledger"}) << Findings(report);
+  EXPECT_EQ(Failing(report), std::set<std::string>{"counts_match_ledger"})
+      << Findings(report);
   EXPECT_NE(Findings(report).find("the counts have no row"), std::string::npos);
 }
 
