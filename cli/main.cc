@@ -20,6 +20,8 @@ constexpr chute::Command kCommands[] = {
     {"queues", "list the queues, their documents, terms and priors; set priors",
      chute::SetupQueues},
     {"terms-of", "print the terms chute counts for a document", chute::SetupTermsOf},
+    {"terms", "per queue, the terms that most set it apart from the other queues",
+     chute::SetupTerms},
 };
 
 // Levenshtein distance, for "did you mean" (common practice).
