@@ -76,14 +76,18 @@ TermTable TermTableBuilder::Build() {
   t.counts.assign(terms_.size() * nq, 0);
   t.document_counts.assign(terms_.size() * nq, 0);
   t.has_document_counts = true;
-  for (size_t row = 0; row < term_order.size(); ++row) {
-    const uint32_t old_row = term_order[row];
-    t.terms.push_back(std::move(terms_[old_row]));
-    for (size_t q = 0; q < nq; ++q) {
-      const size_t old_q = queue_order[q];
-      if (old_row < counts_[old_q].size()) {
-        t.counts[row * nq + q] = counts_[old_q][old_row];
-        t.document_counts[row * nq + q] = document_counts_[old_q][old_row];
+  for (uint32_t old_row : term_order) t.terms.push_back(std::move(terms_[old_row]));
+  // One queue at a time, freeing its columns as it goes, so that the
+  // builder's copy and the table's are not both whole at once.
+  for (size_t q = 0; q < nq; ++q) {
+    const size_t old_q = queue_order[q];
+    std::vector<int64_t> counts = std::move(counts_[old_q]);
+    std::vector<int64_t> docs = std::move(document_counts_[old_q]);
+    for (size_t row = 0; row < term_order.size(); ++row) {
+      const uint32_t old_row = term_order[row];
+      if (old_row < counts.size()) {
+        t.counts[row * nq + q] = counts[old_row];
+        t.document_counts[row * nq + q] = docs[old_row];
       }
     }
   }
