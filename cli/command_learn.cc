@@ -219,8 +219,7 @@ int RunLearn(const LearnOptions& o) {
   }
   int64_t refused = 0, accepted = 0;
   for (const Line& l : lines) (l.outcome == "refused" ? refused : accepted) += 1;
-  if (refused == 0) return kExitDone;
-  return accepted > 0 ? kExitSomeRefused : kExitFailed;
+  return BatchExit(accepted, refused);
 }
 
 }  // namespace

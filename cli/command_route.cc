@@ -152,8 +152,7 @@ int RunRoute(const RouteOptions& o) {
     Print(out);
   }
   if (o.format == OutputFormat::kTable) Print(table.Render());
-  if (refused == 0) return kExitDone;
-  return routed > 0 ? kExitSomeRefused : kExitFailed;
+  return BatchExit(routed, refused);
 }
 
 }  // namespace
