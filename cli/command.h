@@ -27,6 +27,7 @@ CommandRun SetupRoute(CLI::App* command);
 CommandRun SetupQueues(CLI::App* command);
 CommandRun SetupTermsOf(CLI::App* command);
 CommandRun SetupWhy(CLI::App* command);
+CommandRun SetupTerms(CLI::App* command);
 CommandRun SetupCheck(CLI::App* command);
 CommandRun SetupBackup(CLI::App* command);
 CommandRun SetupRestore(CLI::App* command);

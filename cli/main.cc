@@ -21,6 +21,8 @@ constexpr chute::Command kCommands[] = {
      chute::SetupQueues},
     {"terms-of", "print the terms chute counts for a document", chute::SetupTermsOf},
     {"why", "explain a routing decision: the terms that pulled each way", chute::SetupWhy},
+    {"terms", "per queue, the terms that most set it apart from the other queues",
+     chute::SetupTerms},
     {"check", "check the store's integrity: SQLite's own checks and chute's invariants",
      chute::SetupCheck},
     {"backup", "copy the store to a file while it is in use", chute::SetupBackup},
