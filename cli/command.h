@@ -26,6 +26,7 @@ CommandRun SetupLearn(CLI::App* command);
 CommandRun SetupRoute(CLI::App* command);
 CommandRun SetupQueues(CLI::App* command);
 CommandRun SetupTermsOf(CLI::App* command);
+CommandRun SetupEvaluate(CLI::App* command);
 
 }  // namespace chute
 

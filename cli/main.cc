@@ -20,6 +20,8 @@ constexpr chute::Command kCommands[] = {
     {"queues", "list the queues, their documents, terms and priors; set priors",
      chute::SetupQueues},
     {"terms-of", "print the terms chute counts for a document", chute::SetupTermsOf},
+    {"evaluate", "measure how well each queue is served: cross-validation or a holdout",
+     chute::SetupEvaluate},
 };
 
 // Levenshtein distance, for "did you mean" (common practice).
