@@ -222,12 +222,7 @@ TEST_F(EvaluateTest, WithPathsNamesDocumentsByTheirLearnedPath) {
 }
 
 TEST_F(EvaluateTest, TargetAccuracyGivesARecommendationInWords) {
-  // A long billing document in the words of berths: routed to berths with
-  // the highest confidence, so no threshold reaches accuracy 1.
-  WriteCorpus(kSizes);
-  std::string odd;
-  for (int i = 0; i < 60; ++i) odd += Read("l/berths/" + std::to_string(i % 30) + ".txt");
-  Learn(kSizes, {{"l/billing/odd.txt", odd}});
+  Learn(kSizes);
   RunResult r;
   const json j = Evaluate({"--target-accuracy", "0.5"}, &r);
   const json& rec = j["recommended"];
@@ -239,19 +234,30 @@ TEST_F(EvaluateTest, TargetAccuracyGivesARecommendationInWords) {
   const std::string sentence = rec["sentence"];
   EXPECT_EQ(sentence.rfind("To reach accuracy 0.5", 0), 0u) << sentence;
   EXPECT_NE(r.out.find(sentence), std::string::npos);
-  // An accuracy no threshold reaches: no threshold, and a sentence saying so.
-  const json k = Evaluate({"--target-accuracy", "1"});
+}
+
+// One long billing document in the words of berths is routed to berths
+// with the highest confidence of all: no grid point from there up reaches
+// the target, so no threshold is recommended, and the sentence says so.
+TEST_F(EvaluateTest, UnreachableTargetIsSaidInWords) {
+  WriteCorpus(kSizes);
+  std::string odd;
+  for (int i = 0; i < 60; ++i) odd += Read("l/berths/" + std::to_string(i % 30) + ".txt");
+  Learn(kSizes, {{"l/billing/odd.txt", odd}});
+  RunResult r;
+  const json k = Evaluate({"--target-accuracy", "0.5"}, &r);
   const json* top = nullptr;
   for (const json& s : k["sweep"]) {
     if (s["documents"].get<int>() > 0) top = &s;
   }
   ASSERT_NE(top, nullptr);
-  ASSERT_LT((*top)["accuracy"].get<double>(), 1.0);
+  ASSERT_LT((*top)["accuracy"].get<double>(), 0.5);
   EXPECT_EQ(k["recommended"]["reached"], false);
   EXPECT_TRUE(k["recommended"]["threshold"].is_null());
   EXPECT_TRUE(k["recommended"]["documents"].is_null());
-  EXPECT_EQ(k["recommended"]["sentence"].get<std::string>().rfind("No confidence threshold", 0),
-            0u);
+  const std::string sentence = k["recommended"]["sentence"];
+  EXPECT_EQ(sentence.rfind("No confidence threshold reaches accuracy 0.5", 0), 0u) << sentence;
+  EXPECT_NE(r.out.find(sentence), std::string::npos);
 }
 
 // A holdout is read and routed by the store's model; a queue the model has
