@@ -21,6 +21,7 @@
 #include "cli/exit_code.h"
 #include "cli/format/atomic_file.h"
 #include "cli/format/evaluation_csv.h"
+#include "cli/format/evaluation_html.h"
 #include "cli/format/evaluation_json.h"
 #include "cli/format/evaluation_report.h"
 #include "cli/format/evaluation_text.h"
@@ -51,6 +52,7 @@ struct EvaluateOptions {
   std::optional<double> target;
   std::string json;
   std::string csv;
+  std::string html;
   bool with_paths = false;
   bool with_probabilities = false;
   int64_t max_bytes = kDefaultMaxBytes;
@@ -398,6 +400,12 @@ bool WriteReports(const EvaluateOptions& o, const EvaluationReport& r) {
       return false;
     }
   }
+  if (!o.html.empty()) {
+    if (Status s = WriteFileAtomically(o.html, EvaluationHtml(r)); !s.ok()) {
+      Report(kCommand, s.message());
+      return false;
+    }
+  }
   if (!o.csv.empty()) {
     if (::mkdir(o.csv.c_str(), 0700) != 0 && errno != EEXIST) {
       Report(kCommand, o.csv + ": cannot create the folder: " + std::strerror(errno));
@@ -445,6 +453,7 @@ int RunEvaluate(const EvaluateOptions& o) {
   Print(EvaluationSummary(r));
   if (!o.json.empty()) Print("report written: " + o.json + "\n");
   if (!o.csv.empty()) Print("CSV files written to: " + o.csv + "\n");
+  if (!o.html.empty()) Print("HTML report written: " + o.html + "\n");
   return refused == 0 ? kExitDone : kExitSomeRefused;
 }
 
@@ -476,6 +485,8 @@ CommandRun SetupEvaluate(CLI::App* cmd) {
       ->check(CLI::Range(0.0, 1.0))
       ->type_name("P");
   cmd->add_option("--json", o->json, "write the full report as JSON to this file");
+  cmd->add_option("--html", o->html,
+                  "write a self-contained, printable HTML page with charts to this file");
   cmd->add_option("--csv", o->csv,
                   "write per_queue.csv, confusion.csv, sweep.csv, reliability.csv and "
                   "predictions.csv into this folder");
@@ -493,6 +504,7 @@ Examples:
   chute evaluate
   chute evaluate --folds 10 --seed 7 --target-accuracy 0.98
   chute evaluate --holdout labelled-2026-12/ --json review.json --csv review/
+  chute evaluate --target-accuracy 0.98 --html review.html
   chute evaluate --folds-csv folds.csv --json cv.json)");
   return [o] { return RunEvaluate(*o); };
 }

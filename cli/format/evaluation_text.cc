@@ -51,9 +51,10 @@ std::string RecommendationSentence(const EvaluationReport& r) {
   if (rec->point) {
     const SweepPoint& p = *rec->point;
     const int64_t review = all - p.documents;
-    const std::string at = p.hundredths == kSweepSteps
-                               ? "when the confidence is 1.00 (as high as it goes)"
-                               : "at confidence " + FormatFixed(p.threshold, 2) + " or more";
+    const std::string at =
+        p.hundredths == kSweepSteps ? "when the confidence is 1.00 (as high as it goes)"
+        : p.hundredths == 0         ? "at any confidence (threshold 0.00: every document)"
+                                    : "at confidence " + FormatFixed(p.threshold, 2) + " or more";
     return "To reach accuracy " + target +
            " among the documents routed automatically, route automatically only " + at + ": " +
            where + " that kept " +
