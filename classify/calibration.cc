@@ -3,7 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
-#include "classify/compensated_sum.h"
+#include "classify/neumaier_sum.h"
 
 namespace chute {
 
@@ -20,9 +20,9 @@ int ReliabilityBinOf(double confidence) {
 Calibration ComputeCalibration(std::span<const Prediction> predictions) {
   Calibration c;
   c.reliability.resize(kReliabilityBins);
-  std::vector<CompensatedSum> confidence_sum(kReliabilityBins);
+  std::vector<NeumaierSum> confidence_sum(kReliabilityBins);
   std::vector<int64_t> correct(kReliabilityBins, 0);
-  CompensatedSum log_loss, brier;
+  NeumaierSum log_loss, brier;
   for (const Prediction& p : predictions) {
     double clipped_sum = 0;
     for (double v : p.probabilities) {
@@ -45,7 +45,7 @@ Calibration ComputeCalibration(std::span<const Prediction> predictions) {
     correct[bin] += p.predicted == p.truth;
   }
   const double n = static_cast<double>(predictions.size());
-  CompensatedSum ece;
+  NeumaierSum ece;
   for (int m = 0; m < kReliabilityBins; ++m) {
     ReliabilityBin& b = c.reliability[m];
     b.low = static_cast<double>(m) / kReliabilityBins;

@@ -29,7 +29,7 @@
 //      equal to an inner edge belongs to the lower bin; 1.0 to the last).
 //  ECE      = Σ_m (|B_m| / N) · |acc(B_m) − conf(B_m)|   (Guo et al. 2017,
 //      eq. 3).
-// Sums over documents are compensated (compensated_sum.h).
+// Sums over documents are compensated (neumaier_sum.h).
 #ifndef CHUTE_CLASSIFY_CALIBRATION_H_
 #define CHUTE_CLASSIFY_CALIBRATION_H_
 

@@ -5,15 +5,10 @@
 namespace chute {
 
 CountsRowIndex::CountsRowIndex(const ModelCounts& counts) {
-  rows_.reserve(counts.terms.size());
-  for (size_t r = 0; r < counts.terms.size(); ++r) {
-    rows_.emplace(std::string_view(counts.terms[r]), static_cast<uint32_t>(r));
-  }
-}
-
-int64_t CountsRowIndex::Find(std::string_view term) const {
-  auto it = rows_.find(term);
-  return it == rows_.end() ? -1 : static_cast<int64_t>(it->second);
+  size_t bytes = 0;
+  for (const std::string& t : counts.terms) bytes += t.size();
+  rows_.Reserve(counts.terms.size(), bytes);
+  for (const std::string& t : counts.terms) rows_.Insert(t);
 }
 
 namespace {

@@ -25,12 +25,12 @@
 #include <span>
 #include <string>
 #include <string_view>
-#include <unordered_map>
 #include <vector>
 
 #include "classify/model.h"
 #include "classify/model_counts.h"
 #include "classify/prediction.h"
+#include "classify/term_index.h"
 
 namespace chute {
 
@@ -41,16 +41,15 @@ struct CountedDocument {
   DocumentRows rows;   // (row of ModelCounts::terms, count); rows distinct, counts > 0
 };
 
-// Finds the row of a term in a ModelCounts. Borrows the counts' term texts:
-// keep them alive and unchanged while the index is used.
+// Finds the row of a term in a ModelCounts (whose terms are distinct).
 class CountsRowIndex {
  public:
   explicit CountsRowIndex(const ModelCounts& counts);
   // The row of term, or -1.
-  int64_t Find(std::string_view term) const;
+  int64_t Find(std::string_view term) const { return rows_.Find(term); }
 
  private:
-  std::unordered_map<std::string_view, uint32_t> rows_;
+  TermIndex rows_;  // ids are rows
 };
 
 struct FoldSummary {

@@ -41,7 +41,9 @@ Model Model::Build(const ModelCounts& counts, const ModelOptions& options) {
         std::log(static_cast<double>(m.queues_[q].tokens) + options.alpha * v);
   }
   m.terms_.reserve(rows.size());
-  m.rows_.reserve(rows.size());
+  size_t bytes = 0;
+  for (size_t r : rows) bytes += counts.terms[r].size();
+  m.rows_.Reserve(rows.size(), bytes);
   m.log_theta_.resize(rows.size() * nq);
   for (size_t i = 0; i < rows.size(); ++i) {
     const int64_t* row = counts.counts.data() + rows[i] * all_queues;
@@ -51,15 +53,12 @@ Model Model::Build(const ModelCounts& counts, const ModelOptions& options) {
           log_denominator[q];
     }
     m.terms_.push_back(counts.terms[rows[i]]);
-    m.rows_.emplace(m.terms_.back(), static_cast<uint32_t>(i));
+    m.rows_.Insert(m.terms_.back());
   }
   return m;
 }
 
-int64_t Model::FindTerm(std::string_view term) const {
-  auto it = rows_.find(term);
-  return it == rows_.end() ? -1 : static_cast<int64_t>(it->second);
-}
+int64_t Model::FindTerm(std::string_view term) const { return rows_.Find(term); }
 
 void Model::ToRows(const std::vector<std::string>& terms, DocumentRows* rows,
                    int64_t* unknown) const {
@@ -70,11 +69,11 @@ void Model::ToRows(const std::vector<std::string>& terms, DocumentRows* rows,
   std::vector<uint32_t> found;
   found.reserve(terms.size());
   for (const std::string& t : terms) {
-    auto it = rows_.find(std::string_view(t));
-    if (it == rows_.end()) {
+    const int64_t row = rows_.Find(t);
+    if (row < 0) {
       ++*unknown;
     } else {
-      found.push_back(it->second);
+      found.push_back(static_cast<uint32_t>(row));
     }
   }
   std::sort(found.begin(), found.end());

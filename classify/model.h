@@ -18,14 +18,13 @@
 #define CHUTE_CLASSIFY_MODEL_H_
 
 #include <cstdint>
-#include <functional>
 #include <string>
 #include <string_view>
-#include <unordered_map>
 #include <utility>
 #include <vector>
 
 #include "classify/model_counts.h"
+#include "classify/term_index.h"
 
 namespace chute {
 
@@ -97,20 +96,12 @@ class Model {
  private:
   Model() = default;
 
-  struct StringHash {
-    using is_transparent = void;
-    size_t operator()(std::string_view s) const {
-      return std::hash<std::string_view>{}(s);
-    }
-  };
-
   ModelOptions options_;
   std::vector<QueueCounts> queues_;
   std::vector<double> priors_;
   std::vector<double> log_priors_;
   std::vector<std::string> terms_;
-  std::unordered_map<std::string, uint32_t, StringHash, std::equal_to<>>
-      rows_;
+  TermIndex rows_;  // term -> row (ids are rows)
   std::vector<double> log_theta_;  // [row * queue_count + q]
 };
 

@@ -26,6 +26,8 @@ CommandRun SetupLearn(CLI::App* command);
 CommandRun SetupRoute(CLI::App* command);
 CommandRun SetupQueues(CLI::App* command);
 CommandRun SetupTermsOf(CLI::App* command);
+CommandRun SetupWhy(CLI::App* command);
+CommandRun SetupTerms(CLI::App* command);
 CommandRun SetupEvaluate(CLI::App* command);
 
 }  // namespace chute

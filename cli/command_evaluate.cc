@@ -454,7 +454,7 @@ int RunEvaluate(const EvaluateOptions& o) {
   if (!o.json.empty()) Print("report written: " + o.json + "\n");
   if (!o.csv.empty()) Print("CSV files written to: " + o.csv + "\n");
   if (!o.html.empty()) Print("HTML report written: " + o.html + "\n");
-  return refused == 0 ? kExitDone : kExitSomeRefused;
+  return BatchExit(static_cast<int64_t>(r.predictions.size()), refused);
 }
 
 }  // namespace

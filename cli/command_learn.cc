@@ -10,6 +10,7 @@
 #include "cli/format/json_writer.h"
 #include "cli/format/progress.h"
 #include "cli/format/table_writer.h"
+#include "cli/parallel.h"
 #include "cli/read/document_reader.h"
 #include "cli/read/labelled_inputs.h"
 #include "tokenize/tokenizer.h"
@@ -27,6 +28,7 @@ struct LearnOptions {
   std::vector<std::string> inputs;
   OutputFormat format = OutputFormat::kTable;
   int64_t max_bytes = kDefaultMaxBytes;
+  size_t threads = 1;
 };
 
 // What became of one document, for the output.
@@ -118,51 +120,71 @@ int RunLearn(const LearnOptions& o) {
     lines.push_back({p.path, "", "", "refused", p.reason});
   }
 
-  Tokenizer tokenizer(store->settings().tokenizer);
-  ReadOptions read_options{o.max_bytes};
+  // Workers read and tokenize a window of documents at a time; this thread
+  // then takes their results in input order.
+  std::vector<std::unique_ptr<Tokenizer>> tokenizers;
+  for (size_t w = 0; w < o.threads; ++w) {
+    tokenizers.push_back(std::make_unique<Tokenizer>(store->settings().tokenizer));
+  }
+  struct Slot {
+    Status status;
+    Document doc;
+    std::vector<std::string> terms;
+  };
+  std::vector<Slot> window(kParallelWindow);
+  const ReadOptions read_options{o.max_bytes};
   LearnBatch batch;
   std::vector<size_t> line_of_batch_doc;
-  std::vector<std::string> terms;
-  Document doc;
   Progress progress("learn", files.size());
-  for (const LabelledFile& f : files) {
-    progress.Tick();
-    const std::string where = f.context.empty() ? f.path : f.context + ": " + f.path;
-    Status r = ReadDocument(f.path, read_options, &doc);
-    if (!r.ok()) {
-      Report("learn", f.context.empty() ? r.message() : f.context + ": " + r.message());
-      lines.push_back({f.path, f.queue, "", "refused", ReasonOf(r, f.path)});
-      continue;
-    }
-    if (doc.replaced > 0) {
-      Report("learn", where + ": " + std::to_string(doc.replaced) +
-                          " invalid UTF-8 sequences replaced by U+FFFD");
-    }
-    std::optional<LedgerEntry> known;
-    if (Status k = store->FindDocument(doc.digest, &known); !k.ok()) {
-      Report("learn", k.message());
-      return kExitFailed;
-    }
-    if (known) {
-      if (known->queue == f.queue) {
-        lines.push_back({f.path, f.queue, doc.digest, "already_learned", ""});
-      } else {
-        std::string reason = "already learned under queue '" + known->queue + "'";
+  for (size_t start = 0; start < files.size(); start += kParallelWindow) {
+    const size_t count = std::min(kParallelWindow, files.size() - start);
+    ParallelFor(count, o.threads, [&](size_t i, size_t worker) {
+      Slot& slot = window[i];
+      slot.terms.clear();
+      slot.status = ReadDocument(files[start + i].path, read_options, &slot.doc);
+      if (slot.status.ok()) tokenizers[worker]->Tokenize(slot.doc.text, &slot.terms);
+    });
+    for (size_t i = 0; i < count; ++i) {
+      progress.Tick();
+      const LabelledFile& f = files[start + i];
+      const Slot& slot = window[i];
+      const Document& doc = slot.doc;
+      const std::string where = f.context.empty() ? f.path : f.context + ": " + f.path;
+      if (!slot.status.ok()) {
+        const Status& r = slot.status;
+        Report("learn", f.context.empty() ? r.message() : f.context + ": " + r.message());
+        lines.push_back({f.path, f.queue, "", "refused", ReasonOf(r, f.path)});
+        continue;
+      }
+      if (doc.replaced > 0) {
+        Report("learn", where + ": " + std::to_string(doc.replaced) +
+                            " invalid UTF-8 sequences replaced by U+FFFD");
+      }
+      std::optional<LedgerEntry> known;
+      if (Status k = store->FindDocument(doc.digest, &known); !k.ok()) {
+        Report("learn", k.message());
+        return kExitFailed;
+      }
+      if (known) {
+        if (known->queue == f.queue) {
+          lines.push_back({f.path, f.queue, doc.digest, "already_learned", ""});
+        } else {
+          std::string reason = "already learned under queue '" + known->queue + "'";
+          Report("learn", where + ": " + reason);
+          lines.push_back({f.path, f.queue, doc.digest, "refused", reason});
+        }
+        continue;
+      }
+      if (slot.terms.empty()) {
+        std::string reason = "no terms to learn (empty, or nothing but spaces and punctuation)";
         Report("learn", where + ": " + reason);
         lines.push_back({f.path, f.queue, doc.digest, "refused", reason});
+        continue;
       }
-      continue;
+      batch.Add(doc.digest, f.queue, SourcePath(f.path), slot.terms);
+      line_of_batch_doc.push_back(lines.size());
+      lines.push_back({f.path, f.queue, doc.digest, "learned", ""});
     }
-    tokenizer.Tokenize(doc.text, &terms);
-    if (terms.empty()) {
-      std::string reason = "no terms to learn (empty, or nothing but spaces and punctuation)";
-      Report("learn", where + ": " + reason);
-      lines.push_back({f.path, f.queue, doc.digest, "refused", reason});
-      continue;
-    }
-    batch.Add(doc.digest, f.queue, SourcePath(f.path), terms);
-    line_of_batch_doc.push_back(lines.size());
-    lines.push_back({f.path, f.queue, doc.digest, "learned", ""});
   }
 
   LearnResult result;
@@ -197,8 +219,7 @@ int RunLearn(const LearnOptions& o) {
   }
   int64_t refused = 0, accepted = 0;
   for (const Line& l : lines) (l.outcome == "refused" ? refused : accepted) += 1;
-  if (refused == 0) return kExitDone;
-  return accepted > 0 ? kExitSomeRefused : kExitFailed;
+  return BatchExit(accepted, refused);
 }
 
 }  // namespace
@@ -214,6 +235,7 @@ CommandRun SetupLearn(CLI::App* cmd) {
   cmd->add_option("files", o->inputs, "with --queue: files, folders, or - for standard input");
   AddFormatOption(cmd, &o->format);
   AddMaxBytesOption(cmd, &o->max_bytes);
+  AddThreadsOption(cmd, &o->threads);
   cmd->footer(R"(Everything is learned in one transaction: all of it, or nothing.
 A document already learned under the same queue changes nothing.
 

@@ -10,6 +10,7 @@
 #include "cli/format/number.h"
 #include "cli/format/progress.h"
 #include "cli/format/table_writer.h"
+#include "cli/parallel.h"
 #include "cli/read/document_reader.h"
 #include "cli/read/input_walker.h"
 #include "tokenize/tokenizer.h"
@@ -24,6 +25,7 @@ struct RouteOptions {
   OutputFormat format = OutputFormat::kTable;
   int top = 3;
   int64_t max_bytes = kDefaultMaxBytes;
+  size_t threads = 1;
 };
 
 std::string JsonLine(const std::string& file, const Model& model, const Decision& d, int top) {
@@ -75,11 +77,21 @@ int RunRoute(const RouteOptions& o) {
     ++refused;
   }
 
-  Tokenizer tokenizer(store->settings().tokenizer);
-  ReadOptions read_options{o.max_bytes};
-  std::vector<std::string> terms;
-  DocumentRows rows;
-  Document doc;
+  // Workers read, tokenize and score a window of documents at a time (the
+  // model is shared read-only); this thread prints in input order.
+  std::vector<std::unique_ptr<Tokenizer>> tokenizers;
+  for (size_t w = 0; w < o.threads; ++w) {
+    tokenizers.push_back(std::make_unique<Tokenizer>(store->settings().tokenizer));
+  }
+  struct Slot {
+    Status status;
+    Document doc;
+    std::vector<std::string> terms;
+    DocumentRows rows;
+    Decision decision;
+  };
+  std::vector<Slot> window(kParallelWindow);
+  const ReadOptions read_options{o.max_bytes};
   TableWriter table({{"file"},
                      {"queue"},
                      {"confidence", TableWriter::Align::kRight},
@@ -90,45 +102,57 @@ int RunRoute(const RouteOptions& o) {
     Print(CsvRecordLine({"file", "queue", "confidence", "runner_up", "runner_up_posterior"}));
   }
   Progress progress("route", files.size());
-  for (const InputFile& f : files) {
-    progress.Tick();
-    if (Status r = ReadDocument(f.path, read_options, &doc); !r.ok()) {
-      Report("route", r.message());
-      ++refused;
-      continue;
+  for (size_t start = 0; start < files.size(); start += kParallelWindow) {
+    const size_t count = std::min(kParallelWindow, files.size() - start);
+    ParallelFor(count, o.threads, [&](size_t i, size_t worker) {
+      Slot& slot = window[i];
+      slot.status = ReadDocument(files[start + i].path, read_options, &slot.doc);
+      if (!slot.status.ok()) return;
+      tokenizers[worker]->Tokenize(slot.doc.text, &slot.terms);
+      int64_t unknown = 0;
+      model.ToRows(slot.terms, &slot.rows, &unknown);
+      slot.decision = model.Decide(slot.rows, unknown);
+    });
+    std::string out;
+    for (size_t i = 0; i < count; ++i) {
+      progress.Tick();
+      const InputFile& f = files[start + i];
+      const Slot& slot = window[i];
+      if (!slot.status.ok()) {
+        Report("route", slot.status.message());
+        ++refused;
+        continue;
+      }
+      if (slot.doc.replaced > 0) {
+        Report("route", f.path + ": " + std::to_string(slot.doc.replaced) +
+                            " invalid UTF-8 sequences replaced by U+FFFD");
+      }
+      const Decision& d = slot.decision;
+      ++routed;
+      const QueuePosterior& best = d.ranked.front();
+      const QueuePosterior* second = d.ranked.size() > 1 ? &d.ranked[1] : nullptr;
+      const std::string& queue = model.queues()[best.queue].name;
+      switch (o.format) {
+        case OutputFormat::kJsonl:
+          out += JsonLine(f.path, model, d, o.top);
+          break;
+        case OutputFormat::kCsv:
+          out += CsvRecordLine({f.path, queue, FormatShortest(best.posterior),
+                                second ? model.queues()[second->queue].name : "",
+                                second ? FormatShortest(second->posterior) : ""});
+          break;
+        case OutputFormat::kTable:
+          table.AddRow({f.path, queue, FormatFixed(best.posterior, 3),
+                        second ? model.queues()[second->queue].name : "",
+                        second ? FormatFixed(second->posterior, 3) : "",
+                        d.no_terms() ? "no known terms: prior only" : ""});
+          break;
+      }
     }
-    if (doc.replaced > 0) {
-      Report("route", f.path + ": " + std::to_string(doc.replaced) +
-                          " invalid UTF-8 sequences replaced by U+FFFD");
-    }
-    tokenizer.Tokenize(doc.text, &terms);
-    int64_t unknown = 0;
-    model.ToRows(terms, &rows, &unknown);
-    const Decision d = model.Decide(rows, unknown);
-    ++routed;
-    const QueuePosterior& best = d.ranked.front();
-    const QueuePosterior* second = d.ranked.size() > 1 ? &d.ranked[1] : nullptr;
-    const std::string& queue = model.queues()[best.queue].name;
-    switch (o.format) {
-      case OutputFormat::kJsonl:
-        Print(JsonLine(f.path, model, d, o.top));
-        break;
-      case OutputFormat::kCsv:
-        Print(CsvRecordLine({f.path, queue, FormatShortest(best.posterior),
-                             second ? model.queues()[second->queue].name : "",
-                             second ? FormatShortest(second->posterior) : ""}));
-        break;
-      case OutputFormat::kTable:
-        table.AddRow({f.path, queue, FormatFixed(best.posterior, 3),
-                      second ? model.queues()[second->queue].name : "",
-                      second ? FormatFixed(second->posterior, 3) : "",
-                      d.no_terms() ? "no known terms: prior only" : ""});
-        break;
-    }
+    Print(out);
   }
   if (o.format == OutputFormat::kTable) Print(table.Render());
-  if (refused == 0) return kExitDone;
-  return routed > 0 ? kExitSomeRefused : kExitFailed;
+  return BatchExit(routed, refused);
 }
 
 }  // namespace
@@ -141,6 +165,7 @@ CommandRun SetupRoute(CLI::App* cmd) {
   cmd->add_option("--top", o->top, "queues listed per document in jsonl (default 3)")
       ->check(CLI::PositiveNumber);
   AddMaxBytesOption(cmd, &o->max_bytes);
+  AddThreadsOption(cmd, &o->threads);
   cmd->footer(R"(Confidence is the posterior probability of the chosen queue. Naive Bayes
 is often over-confident: have a person review documents below a threshold
 you have measured (see README, "Cautions").

@@ -74,8 +74,7 @@ int RunTermsOf(const TermsOfOptions& o) {
     }
     Print(out);
   }
-  if (refused == 0) return kExitDone;
-  return done > 0 ? kExitSomeRefused : kExitFailed;
+  return BatchExit(done, refused);
 }
 
 }  // namespace

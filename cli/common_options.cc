@@ -7,6 +7,7 @@
 #include <ctime>
 #include <filesystem>
 
+#include "cli/parallel.h"
 #include "cli/read/document_reader.h"
 
 namespace chute {
@@ -36,6 +37,15 @@ void AddMaxBytesOption(CLI::App* command, int64_t* max_bytes) {
       ->add_option("--max-bytes", *max_bytes,
                    "refuse documents larger than this many bytes (default 33554432 = 32 MiB)")
       ->check(CLI::PositiveNumber);
+}
+
+void AddThreadsOption(CLI::App* command, size_t* threads) {
+  *threads = DefaultThreads();
+  command
+      ->add_option("--threads", *threads,
+                   "threads that read and tokenize documents (default: every core, here " +
+                       std::to_string(*threads) + ")")
+      ->check(CLI::Range(1, 256));
 }
 
 bool OpenStoreOrReport(std::string_view command, const std::string& db,

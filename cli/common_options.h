@@ -33,6 +33,10 @@ void AddFormatOption(CLI::App* command, OutputFormat* format);
 // --max-bytes N: documents larger than N bytes are refused.
 void AddMaxBytesOption(CLI::App* command, int64_t* max_bytes);
 
+// --threads N: worker threads for reading and tokenizing (default: the
+// cores this process may use).
+void AddThreadsOption(CLI::App* command, size_t* threads);
+
 // The default store path: $CHUTE_DB when set and not empty, else chute.db.
 std::string DefaultDbPath();
 

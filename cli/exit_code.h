@@ -1,6 +1,8 @@
 #ifndef CHUTE_CLI_EXIT_CODE_H_
 #define CHUTE_CLI_EXIT_CODE_H_
 
+#include <cstdint>
+
 namespace chute {
 
 // Exit statuses, the same for every command.
@@ -10,6 +12,14 @@ enum ExitCode : int {
   kExitUsage = 2,        // the command line was wrong (every parse error)
   kExitSomeRefused = 3,  // done, but some documents were refused (on stderr)
 };
+
+// The exit status of a command that handles a batch of documents: done when
+// none was refused; done-but-refused when some were handled; failed when
+// every one was refused.
+inline ExitCode BatchExit(int64_t handled, int64_t refused) {
+  if (refused == 0) return kExitDone;
+  return handled > 0 ? kExitSomeRefused : kExitFailed;
+}
 
 }  // namespace chute
 

@@ -20,6 +20,9 @@ constexpr chute::Command kCommands[] = {
     {"queues", "list the queues, their documents, terms and priors; set priors",
      chute::SetupQueues},
     {"terms-of", "print the terms chute counts for a document", chute::SetupTermsOf},
+    {"why", "explain a routing decision: the terms that pulled each way", chute::SetupWhy},
+    {"terms", "per queue, the terms that most set it apart from the other queues",
+     chute::SetupTerms},
     {"evaluate", "measure how well each queue is served: cross-validation or a holdout",
      chute::SetupEvaluate},
 };

@@ -9,14 +9,7 @@ void LearnBatch::Add(std::string digest, std::string queue, std::string source,
   Document doc{std::move(digest), std::move(queue), std::move(source), {}, 0};
   std::vector<uint32_t> ids;
   ids.reserve(terms.size());
-  for (const std::string& t : terms) {
-    auto it = ids_.find(t);
-    if (it == ids_.end()) {
-      it = ids_.emplace(t, static_cast<uint32_t>(terms_.size())).first;
-      terms_.push_back(t);
-    }
-    ids.push_back(it->second);
-  }
+  for (const std::string& t : terms) ids.push_back(terms_.Insert(t));
   std::sort(ids.begin(), ids.end());
   for (size_t i = 0; i < ids.size();) {
     size_t j = i;

@@ -5,12 +5,12 @@
 #define CHUTE_STORE_LEARN_BATCH_H_
 
 #include <cstdint>
-#include <functional>
 #include <string>
 #include <string_view>
-#include <unordered_map>
 #include <utility>
 #include <vector>
+
+#include "classify/term_index.h"
 
 namespace chute {
 
@@ -30,20 +30,13 @@ class LearnBatch {
            const std::vector<std::string>& terms);
 
   const std::vector<Document>& documents() const { return documents_; }
-  const std::string& term(uint32_t id) const { return terms_[id]; }
+  std::string_view term(uint32_t id) const { return terms_.term(id); }
   size_t term_count() const { return terms_.size(); }
   bool empty() const { return documents_.empty(); }
 
  private:
-  struct StringHash {
-    using is_transparent = void;
-    size_t operator()(std::string_view s) const {
-      return std::hash<std::string_view>{}(s);
-    }
-  };
   std::vector<Document> documents_;
-  std::vector<std::string> terms_;  // batch term id -> text
-  std::unordered_map<std::string, uint32_t, StringHash, std::equal_to<>> ids_;
+  TermIndex terms_;  // batch term id -> text
 };
 
 }  // namespace chute

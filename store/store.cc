@@ -48,7 +48,10 @@ Status Configure(sqlite3* db) {
 
 Status OpenDb(const std::string& path, sql::DbHandle* out) {
   sqlite3* raw = nullptr;
-  int rc = sqlite3_open_v2(path.c_str(), &raw, SQLITE_OPEN_READWRITE, nullptr);
+  // One connection per thread (Store is not shared), so SQLite's own mutexes
+  // are not needed.
+  int rc = sqlite3_open_v2(path.c_str(), &raw, SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOMUTEX,
+                           nullptr);
   out->reset(raw);
   if (rc != SQLITE_OK) {
     return Status::IoError(path + ": cannot open: " +
@@ -284,21 +287,25 @@ Status Store::LoadModelCounts(ModelCounts* out) {
 Status Store::FindDocument(const std::string& digest,
                            std::optional<LedgerEntry>* out) {
   out->reset();
-  sql::Statement st(db_.get(),
-                    "SELECT l.digest, q.name, l.source, l.learned_at, l.tokens "
-                    "FROM ledger l JOIN queues q ON q.id = l.queue_id "
-                    "WHERE l.digest = ?");
-  if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+  if (!find_document_.ok()) {
+    find_document_ = sql::Statement(db_.get(),
+                                    "SELECT l.digest, q.name, l.source, l.learned_at, l.tokens "
+                                    "FROM ledger l JOIN queues q ON q.id = l.queue_id "
+                                    "WHERE l.digest = ?");
+    if (!find_document_.ok()) return Status::IoError(path_ + ": " + find_document_.error());
+  }
+  sql::Statement& st = find_document_;
   st.Bind(1, digest);
   int rc = st.Step();
   if (rc == SQLITE_ROW) {
     *out = LedgerEntry{std::string(st.ColumnText(0)), std::string(st.ColumnText(1)),
                        std::string(st.ColumnText(2)), std::string(st.ColumnText(3)),
                        st.ColumnInt(4)};
-  } else if (rc != SQLITE_DONE) {
-    return sql::ErrorStatus(db_.get(), path_);
   }
-  return Status::Ok();
+  Status s = rc == SQLITE_ROW || rc == SQLITE_DONE ? Status::Ok()
+                                                   : sql::ErrorStatus(db_.get(), path_);
+  st.Reset();  // ends the statement's read of the store
+  return s;
 }
 
 Status Store::ReadLedger(const std::function<void(LedgerDocument&)>& fn) {
@@ -393,27 +400,62 @@ Status Store::Learn(const LearnBatch& batch, const std::string& now,
     }
   }
 
-  // Aggregate N(q, w) and the queue totals over the new documents.
-  const uint64_t nq = queue_names.size();
-  std::unordered_map<uint64_t, int64_t> sums;  // term * nq + queue -> count
+  // Rank the batch's terms by their bytes once; from here on, integer ranks
+  // give the key order (term text, then queue name) and the ledger's order.
+  const auto nt = static_cast<uint32_t>(batch.term_count());
+  std::vector<uint32_t> by_text(nt);
+  for (uint32_t t = 0; t < nt; ++t) by_text[t] = t;
+  std::sort(by_text.begin(), by_text.end(),
+            [&](uint32_t a, uint32_t b) { return batch.term(a) < batch.term(b); });
+  std::vector<uint32_t> rank(nt);
+  for (uint32_t r = 0; r < nt; ++r) rank[by_text[r]] = r;
+  const size_t nq = queue_names.size();
+  std::vector<uint32_t> queue_rank(nq);
+  {
+    std::vector<uint32_t> by_name(nq);
+    for (uint32_t q = 0; q < nq; ++q) by_name[q] = q;
+    std::sort(by_name.begin(), by_name.end(),
+              [&](uint32_t a, uint32_t b) { return queue_names[a] < queue_names[b]; });
+    for (uint32_t r = 0; r < nq; ++r) queue_rank[by_name[r]] = r;
+  }
+
+  // Aggregate N(q, w) and the queue totals over the new documents, one
+  // queue at a time through one dense array.
+  struct Sum {
+    uint32_t term_rank;
+    uint32_t queue_rank;
+    uint32_t queue;
+    int64_t n;
+  };
+  std::vector<Sum> sums;
   std::vector<int64_t> queue_docs(nq, 0), queue_tokens(nq, 0);
+  std::vector<std::vector<size_t>> docs_of_queue(nq);
   for (size_t i = 0; i < docs.size(); ++i) {
     if (result->outcomes[i] != LearnOutcome::kLearned) continue;
-    size_t q = queue_index[docs[i].queue];
-    ++queue_docs[q];
-    queue_tokens[q] += docs[i].tokens;
-    for (const auto& [term, count] : docs[i].counts) sums[term * nq + q] += count;
+    docs_of_queue[queue_index[docs[i].queue]].push_back(i);
     ++result->learned;
   }
-  std::vector<uint64_t> keys;
-  keys.reserve(sums.size());
-  for (const auto& kv : sums) keys.push_back(kv.first);
-  // Key order: term text, then queue name.
-  std::sort(keys.begin(), keys.end(), [&](uint64_t a, uint64_t b) {
-    const std::string& ta = batch.term(static_cast<uint32_t>(a / nq));
-    const std::string& tb = batch.term(static_cast<uint32_t>(b / nq));
-    if (ta != tb) return ta < tb;
-    return queue_names[a % nq] < queue_names[b % nq];
+  {
+    std::vector<int64_t> dense(nt, 0);
+    std::vector<uint32_t> touched;
+    for (size_t q = 0; q < nq; ++q) {
+      for (size_t i : docs_of_queue[q]) {
+        ++queue_docs[q];
+        queue_tokens[q] += docs[i].tokens;
+        for (const auto& [term, count] : docs[i].counts) {
+          if (dense[term] == 0) touched.push_back(term);
+          dense[term] += count;
+        }
+      }
+      for (uint32_t t : touched) {
+        sums.push_back({rank[t], queue_rank[q], static_cast<uint32_t>(q), dense[t]});
+        dense[t] = 0;
+      }
+      touched.clear();
+    }
+  }
+  std::sort(sums.begin(), sums.end(), [](const Sum& a, const Sum& b) {
+    return a.term_rank != b.term_rank ? a.term_rank < b.term_rank : a.queue_rank < b.queue_rank;
   });
 
   {
@@ -425,11 +467,10 @@ Status Store::Learn(const LearnBatch& batch, const std::string& now,
     if (!find.ok() || !add.ok() || !upsert.ok()) {
       return Status::IoError(path_ + ": " + find.error() + add.error() + upsert.error());
     }
-    int64_t last_batch_term = -1, term_id = 0;
-    for (uint64_t key : keys) {
-      auto batch_term = static_cast<int64_t>(key / nq);
-      if (batch_term != last_batch_term) {
-        const std::string& text = batch.term(static_cast<uint32_t>(batch_term));
+    int64_t last_rank = -1, term_id = 0;
+    for (const Sum& sum : sums) {
+      if (sum.term_rank != last_rank) {
+        std::string_view text = batch.term(by_text[sum.term_rank]);
         find.Bind(1, text);
         if (find.Step() == SQLITE_ROW) {
           term_id = find.ColumnInt(0);
@@ -440,9 +481,9 @@ Status Store::Learn(const LearnBatch& batch, const std::string& now,
           ++result->new_terms;
         }
         find.Reset();
-        last_batch_term = batch_term;
+        last_rank = sum.term_rank;
       }
-      Status s = upsert.Bind(1, term_id).Bind(2, queue_ids[key % nq]).Bind(3, sums[key]).Run();
+      Status s = upsert.Bind(1, term_id).Bind(2, queue_ids[sum.queue]).Bind(3, sum.n).Run();
       if (!s.ok()) return fail(s);
     }
   }
@@ -464,13 +505,16 @@ Status Store::Learn(const LearnBatch& batch, const std::string& now,
                        "INSERT INTO ledger(digest, queue_id, source, learned_at, tokens, "
                        "term_counts) VALUES(?, ?, ?, ?, ?, ?)");
     if (!add.ok()) return Status::IoError(path_ + ": " + add.error());
-    std::vector<TermCount> own;
+    std::vector<std::pair<uint32_t, int64_t>> ranked;
+    std::vector<std::pair<std::string_view, int64_t>> own;
     for (size_t i = 0; i < docs.size(); ++i) {
       if (result->outcomes[i] != LearnOutcome::kLearned) continue;
       const auto& d = docs[i];
+      ranked.clear();
+      for (const auto& [term, count] : d.counts) ranked.emplace_back(rank[term], count);
+      std::sort(ranked.begin(), ranked.end());
       own.clear();
-      for (const auto& [term, count] : d.counts) own.emplace_back(batch.term(term), count);
-      std::sort(own.begin(), own.end());
+      for (const auto& [r, count] : ranked) own.emplace_back(batch.term(by_text[r]), count);
       Status s = add.Bind(1, d.digest)
                      .Bind(2, queue_ids[queue_index[d.queue]])
                      .Bind(3, d.source)

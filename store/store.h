@@ -122,6 +122,8 @@ class Store {
   std::string path_;
   sql::DbHandle db_;
   StoreSettings settings_;
+  // Prepared once: learn asks for every document it reads.
+  sql::Statement find_document_;
 };
 
 }  // namespace chute

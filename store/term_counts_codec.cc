@@ -28,9 +28,8 @@ bool GetVarint(std::string_view* in, uint64_t* v) {
   return false;
 }
 
-}  // namespace
-
-std::string EncodeTermCounts(const std::vector<TermCount>& terms) {
+template <typename Pairs>
+std::string Encode(const Pairs& terms) {
   std::string out;
   std::string_view previous;
   for (const auto& [term, count] : terms) {
@@ -44,6 +43,14 @@ std::string EncodeTermCounts(const std::vector<TermCount>& terms) {
     previous = term;
   }
   return out;
+}
+
+}  // namespace
+
+std::string EncodeTermCounts(const std::vector<TermCount>& terms) { return Encode(terms); }
+
+std::string EncodeTermCounts(const std::vector<std::pair<std::string_view, int64_t>>& terms) {
+  return Encode(terms);
 }
 
 bool DecodeTermCounts(std::string_view blob, std::vector<TermCount>* terms) {

@@ -20,6 +20,9 @@ using TermCount = std::pair<std::string, int64_t>;
 
 // REQUIRES: terms sorted by bytes and distinct; counts > 0.
 std::string EncodeTermCounts(const std::vector<TermCount>& terms);
+// The same, for terms held elsewhere (the views must stay valid during the
+// call).
+std::string EncodeTermCounts(const std::vector<std::pair<std::string_view, int64_t>>& terms);
 
 // Returns false when the blob is malformed: a varint cut short or wider
 // than 64 bits, a shared prefix longer than the previous term, a suffix past

@@ -369,6 +369,30 @@ TEST_F(CliTest, FoldersAreWalkedInByteOrderSkippingDotNamesAndLinks) {
   EXPECT_EQ(lines[4].substr(0, 9), "in/b.txt,");
 }
 
+// The demo corpus, learned and routed with one thread and with several:
+// the store's counts and every decision are the same, in the same order.
+TEST_F(CliTest, ThreadsChangeNothingButSpeed) {
+  const std::string corpus = std::string(CHUTE_SOURCE_DIR) + "/corpora/port-authority";
+  ASSERT_EQ(Chute({"init", "--db", "one.db"}).exit_code, 0);
+  ASSERT_EQ(Chute({"init", "--db", "many.db"}).exit_code, 0);
+  RunResult a = Chute({"learn", "--db", "one.db", "--threads", "1", "--tree",
+                       corpus + "/labelled", "--format", "csv"});
+  RunResult b = Chute({"learn", "--db", "many.db", "--threads", "5", "--tree",
+                       corpus + "/labelled", "--format", "csv"});
+  ASSERT_EQ(a.exit_code, 0) << a.err;
+  ASSERT_EQ(b.exit_code, 0) << b.err;
+  EXPECT_EQ(a.out, b.out);
+  EXPECT_EQ(Chute({"queues", "--db", "one.db", "--format", "jsonl"}).out,
+            Chute({"queues", "--db", "many.db", "--format", "jsonl"}).out);
+  RunResult r1 = Chute({"route", "--db", "one.db", "--threads", "1", corpus + "/inbox",
+                        "--format", "jsonl", "--top", "8"});
+  RunResult r5 = Chute({"route", "--db", "many.db", "--threads", "5", corpus + "/inbox",
+                        "--format", "jsonl", "--top", "8"});
+  ASSERT_EQ(r1.exit_code, 0);
+  EXPECT_EQ(Lines(r1.out).size(), 96u);
+  EXPECT_EQ(r1.out, r5.out);
+}
+
 TEST_F(CliTest, RouteReadsStandardInput) {
   InitStore();
   WriteExample131();

@@ -75,7 +75,7 @@ TEST(TermCountsCodecTest, RandomSortedListsRoundTrip) {
 }
 
 TEST(TermCountsCodecTest, EmptyListIsEmptyBlob) {
-  const std::string blob = EncodeTermCounts({});
+  const std::string blob = EncodeTermCounts(std::vector<TermCount>{});
   EXPECT_TRUE(blob.empty());
   Counts decoded = {{"stale", 1}};
   ASSERT_TRUE(DecodeTermCounts(blob, &decoded));
