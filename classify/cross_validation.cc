@@ -92,6 +92,11 @@ bool CrossValidate(ModelCounts* whole, std::span<const CountedDocument> document
   DocumentRows doc_rows;
   for (uint32_t f = 0; f < folds; ++f) {
     const std::vector<size_t>& held = in_fold[f];
+    FoldSummary& summary = out->folds[f];
+    if (held.empty()) {  // nothing to route: no model is built
+      for (const QueueCounts& q : whole->queues) summary.learned += q.documents;
+      continue;
+    }
     // Subtract the fold; on failure add back what was taken.
     for (size_t k = 0; k < held.size(); ++k) {
       if (!Apply(documents[held[k]], -1, whole)) {
@@ -101,7 +106,6 @@ bool CrossValidate(ModelCounts* whole, std::span<const CountedDocument> document
       }
     }
     const Model model = Model::Build(*whole, options);
-    FoldSummary& summary = out->folds[f];
     for (size_t q = 0; q < nq; ++q) {
       if (label_of_column[q] >= 0 && whole->queues[q].documents == 0) {
         summary.queues_left_out.push_back(static_cast<uint32_t>(label_of_column[q]));
@@ -110,7 +114,7 @@ bool CrossValidate(ModelCounts* whole, std::span<const CountedDocument> document
     }
     summary.vocabulary = static_cast<int64_t>(model.vocabulary_size());
     summary.held_out = static_cast<int64_t>(held.size());
-    if (model.queue_count() == 0 && !held.empty()) {
+    if (model.queue_count() == 0) {
       for (size_t k : held) Apply(documents[k], +1, whole);
       *error = "fold " + std::to_string(f + 1) +
                " holds every document: no model is left to route it";

@@ -56,7 +56,7 @@ struct FoldSummary {
   int64_t held_out = 0;    // documents routed in this fold
   int64_t correct = 0;     // of them, routed to their own queue
   int64_t learned = 0;     // documents its model learned
-  int64_t vocabulary = 0;  // |V| of its model
+  int64_t vocabulary = 0;  // |V| of its model (0 for a fold with no document: none is built)
   // Labels whose every document is held out in this fold: its model cannot
   // route to them.
   std::vector<uint32_t> queues_left_out;

@@ -240,6 +240,11 @@ int CrossValidateStore(const EvaluateOptions& o, Store* store, EvaluationReport*
   FillModelSummary(*store, whole, r);
   r->method = EvaluationMethod::kCrossValidation;
 
+  if (o.folds_csv.empty() && o.folds > static_cast<int64_t>(docs.size())) {
+    Report(kCommand, "--folds " + std::to_string(o.folds) + " is more than the " +
+                         std::to_string(docs.size()) + " learned documents");
+    return kExitUsage;
+  }
   if (o.folds_csv.empty()) {
     // Folds depend on the documents (ordered by digest) and the seed, not on
     // the order they were learned in.
@@ -464,32 +469,41 @@ CommandRun SetupEvaluate(CLI::App* cmd) {
   AddDbOption(cmd, &o->db);
   auto* folds = cmd->add_option("--folds", o->folds,
                                 "cross-validation: the number of folds (default 5)")
-                    ->check(CLI::Range(int64_t{2}, int64_t{1000000}));
+                    ->check(CLI::Range(int64_t{2}, int64_t{1000000}))
+                    ->type_name("K");
+  // Seeds stay within the integers JSON readers hold exactly (RFC 8259, §6).
   auto* seed = cmd->add_option("--seed", o->seed,
-                               "cross-validation: the seed of the fold assignment (default 1)");
+                               "cross-validation: the seed of the fold assignment (default 1)")
+                   ->check(CLI::Range(uint64_t{0}, (uint64_t{1} << 53) - 1))
+                   ->type_name("S");
   auto* folds_csv = cmd->add_option(
       "--folds-csv", o->folds_csv,
       "cross-validation on given folds: a CSV file with the header fold and digest or path "
-      "(optionally queue)");
+      "(optionally queue)")->type_name("FILE");
   auto* holdout = cmd->add_option(
-      "--holdout", o->holdout, "evaluate on a labelled folder ROOT/<queue>/... instead");
+      "--holdout", o->holdout, "evaluate on a labelled folder ROOT/<queue>/... instead")
+      ->type_name("DIR");
   auto* holdout_csv = cmd->add_option(
       "--holdout-csv", o->holdout_csv,
-      "evaluate on a CSV manifest with the header path,queue instead");
+      "evaluate on a CSV manifest with the header path,queue instead")->type_name("FILE");
   folds_csv->excludes(folds)->excludes(seed);
   holdout->excludes(holdout_csv)->excludes(folds)->excludes(seed)->excludes(folds_csv);
   holdout_csv->excludes(folds)->excludes(seed)->excludes(folds_csv);
   cmd->add_option_function<double>(
          "--target-accuracy", [o](double v) { o->target = v; },
-         "recommend the lowest confidence threshold whose automatic share reaches this accuracy")
+         "recommend the lowest confidence threshold at which the documents routed "
+         "automatically reach this accuracy")
       ->check(CLI::Range(0.0, 1.0))
       ->type_name("P");
-  cmd->add_option("--json", o->json, "write the full report as JSON to this file");
+  cmd->add_option("--json", o->json, "write the full report as JSON to this file")
+      ->type_name("FILE");
   cmd->add_option("--html", o->html,
-                  "write a self-contained, printable HTML page with charts to this file");
+                  "write a self-contained, printable HTML page with charts to this file")
+      ->type_name("FILE");
   cmd->add_option("--csv", o->csv,
                   "write per_queue.csv, confusion.csv, sweep.csv, reliability.csv and "
-                  "predictions.csv into this folder");
+                  "predictions.csv into this folder")
+      ->type_name("DIR");
   cmd->add_flag("--with-paths", o->with_paths,
                 "name documents by their path in reports (default: the first 12 hex digits of "
                 "their SHA-256; paths can be personal data)");

@@ -93,7 +93,10 @@ void ExpectSameAsFromScratch(const std::vector<Doc>& docs, uint32_t folds,
     const ModelCounts train =
         CountsOf(kQueues, docs, [&](size_t i) { return docs[i].fold != f; }, set_priors);
     const Model m = Model::Build(train, options);
-    EXPECT_EQ(cv.folds[f].vocabulary, static_cast<int64_t>(m.vocabulary_size())) << "fold " << f;
+    if (cv.folds[f].held_out > 0) {
+      EXPECT_EQ(cv.folds[f].vocabulary, static_cast<int64_t>(m.vocabulary_size()))
+          << "fold " << f;
+    }
     const std::vector<uint32_t> label_of = LabelsOfQueues(m, cv.labels);
     for (size_t i = 0; i < docs.size(); ++i) {
       if (docs[i].fold != f) continue;
@@ -151,6 +154,18 @@ TEST(CrossValidationTest, QueueWhollyInOneFoldLeavesThatFoldsModel) {
     EXPECT_EQ(cv.predictions[i].probabilities[2], 0.0);
   }
   ExpectSameAsFromScratch(docs, 3, {});
+}
+
+TEST(CrossValidationTest, EmptyFoldBuildsNoModelAndRoutesNothing) {
+  const std::vector<Doc> docs = Corpus();  // folds 0, 1, 2 of 4
+  ModelCounts whole = CountsOf(kQueues, docs, [](size_t) { return true; });
+  CrossValidation cv;
+  std::string error;
+  ASSERT_TRUE(CrossValidate(&whole, Counted(whole, docs), 4, {}, &cv, &error)) << error;
+  EXPECT_EQ(cv.folds[3].held_out, 0);
+  EXPECT_EQ(cv.folds[3].learned, 9);
+  EXPECT_EQ(cv.folds[3].vocabulary, 0);
+  ExpectSameAsFromScratch(docs, 4, {});
 }
 
 TEST(CrossValidationTest, DocumentsThatDoNotAddUpToTheCountsAreRefused) {

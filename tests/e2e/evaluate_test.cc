@@ -354,6 +354,8 @@ TEST_F(EvaluateTest, UsageErrorsExitTwo) {
            {"--holdout", "l", "--folds", "3"},
            {"--folds-csv", "f.csv", "--seed", "2"},
            {"--target-accuracy", "1.5"},
+           {"--folds", "71"},  // more folds than the 70 learned documents
+           {"--seed", "-1"},
            {"--no-such-option"}}) {
     args.insert(args.begin(), {"evaluate", "--db", "s.db"});
     RunResult r = Chute(args);
