@@ -28,6 +28,7 @@ CommandRun SetupQueues(CLI::App* command);
 CommandRun SetupTermsOf(CLI::App* command);
 CommandRun SetupWhy(CLI::App* command);
 CommandRun SetupTerms(CLI::App* command);
+CommandRun SetupEvaluate(CLI::App* command);
 CommandRun SetupCheck(CLI::App* command);
 CommandRun SetupBackup(CLI::App* command);
 CommandRun SetupRestore(CLI::App* command);

@@ -23,6 +23,8 @@ constexpr chute::Command kCommands[] = {
     {"why", "explain a routing decision: the terms that pulled each way", chute::SetupWhy},
     {"terms", "per queue, the terms that most set it apart from the other queues",
      chute::SetupTerms},
+    {"evaluate", "measure how well each queue is served: cross-validation or a holdout",
+     chute::SetupEvaluate},
     {"check", "check the store's integrity: SQLite's own checks and chute's invariants",
      chute::SetupCheck},
     {"backup", "copy the store to a file while it is in use", chute::SetupBackup},

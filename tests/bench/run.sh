@@ -12,6 +12,10 @@
 #   routed.
 #     chute learn:  `chute init --db DB` (not timed), then timed
 #                   `chute learn --db DB --tree train/`
+#     chute evaluate: `chute evaluate --db DB --folds 5` on the store just
+#                   learned (5-fold cross-validation by subtracting stored
+#                   counts; chute only, timed against chute learn: the
+#                   ratio evaluate/learn must stay below 2)
 #     peer learn:   tests/bench/peer_learn.py learn.csv model.pickle
 #                   (scikit-learn CountVectorizer + MultinomialNB, pickled)
 #     chute route:  `chute route --db DB test/ --format jsonl > file`
@@ -28,7 +32,7 @@
 #   Start-up (Python and scikit-learn imports, ICU data, opening the store)
 #   is part of the figure, as it is for a user.
 # - Runs alternate, chute then peer, in BENCH_PAIRS pairs (default 5) of
-#   (learn, learn, route, route, start-up, start-up); each pair learns into
+#   (learn, evaluate, learn, route, route, start-up, start-up); each pair learns into
 #   a fresh store and a fresh pickle. Reported: medians over the pairs. Before the first pair
 #   every corpus file is read once, so all runs read from the page cache.
 # - Throughput: input bytes (sum of the documents' file sizes; MB = 10^6
@@ -123,6 +127,8 @@ for pair in $(seq 1 "$pairs"); do
   "$chute" init --db "$db" >/dev/null
   measure chute learn "$pair" /dev/null \
     "$chute" learn --db "$db" --tree "$corpus/train"
+  measure chute evaluate "$pair" "$work/chute-evaluate.txt" \
+    "$chute" evaluate --db "$db" --folds 5
   measure peer learn "$pair" /dev/null \
     "${peer_env[@]}" "$py" "$here/peer_learn.py" "$corpus/learn.csv" "$work/peer.pickle"
   measure chute route "$pair" "$work/chute-route.jsonl" \

@@ -5,7 +5,8 @@ a JSON file. Standard library only.
     summarize.py --corpus DIR --work DIR --pairs N --microbench JSON
                  --out JSON --loads LABEL VALUE...
 
-Reads WORK/runs/{chute,peer}-{learn,route,startup}-{1..N}.time (GNU time output
+Reads WORK/runs/{chute,peer}-{learn,route,startup}-{1..N}.time and
+WORK/runs/chute-evaluate-{1..N}.time (GNU time output
 '%e %M %U %S': wall s, peak RSS KiB, user s, system s), CORPUS/corpus.json
 (sizes), CORPUS/test.csv (true queues), WORK/{chute,peer}-route.jsonl (the
 last pair's decisions) and the Google Benchmark JSON file.
@@ -22,6 +23,9 @@ import sys
 TOOLS = ("chute", "peer")
 STAGES = ("learn", "route")
 TARGET_SPEEDUP = 2.0  # chute must be at least this much faster than the peer
+# 5-fold cross-validation (chute evaluate --folds 5) must cost less than
+# this many learns of the same corpus.
+EVALUATE_TARGET_LEARNS = 2.0
 
 
 def read_time(path):
@@ -149,6 +153,25 @@ def main():
     results["route_without_startup"]["ratio_chute_over_peer"] = {
         "throughput": round(p / c, 2) if c > 0 else None}
 
+    # chute evaluate --folds 5 against chute learn, in the same pairs.
+    evaluate_runs = runs_of("chute", "evaluate")
+    evaluate_wall = statistics.median(r["wall_s"] for r in evaluate_runs)
+    learn_wall = results["learn"]["chute"]["median_wall_s"]
+    results["evaluate"] = {
+        "chute": {
+            "runs": evaluate_runs,
+            "median_wall_s": evaluate_wall,
+            "min_wall_s": min(r["wall_s"] for r in evaluate_runs),
+            "max_wall_s": max(r["wall_s"] for r in evaluate_runs),
+            "median_cpu_s": statistics.median(r["cpu_s"] for r in evaluate_runs),
+            "median_peak_rss_mib": round(statistics.median(
+                r["peak_rss_kib"] for r in evaluate_runs) / 1024, 1),
+        },
+        "ratio_evaluate_over_learn": round(evaluate_wall / learn_wall, 3),
+        "target_ratio_below": EVALUATE_TARGET_LEARNS,
+        "target_met": evaluate_wall / learn_wall < EVALUATE_TARGET_LEARNS,
+    }
+
     # Did both do the work? Decisions of the last pair against the truth.
     truth = {}
     with open(os.path.join(args.corpus, "test.csv"), newline="",
@@ -218,6 +241,13 @@ def main():
           "peak memory %.2fx\n" %
           (stage, ratio["throughput"], TARGET_SPEEDUP,
            "met" if ratio["target_met"] else "MISSED", ratio["peak_rss"]))
+    ev = results["evaluate"]
+    w("evaluate: chute evaluate --folds 5 %.2f s (%.1f-%.1f), peak %.1f MiB: "
+      "%.2f learns of the corpus (target < %.0f: %s)\n" %
+      (ev["chute"]["median_wall_s"], ev["chute"]["min_wall_s"],
+       ev["chute"]["max_wall_s"], ev["chute"]["median_peak_rss_mib"],
+       ev["ratio_evaluate_over_learn"], EVALUATE_TARGET_LEARNS,
+       "met" if ev["target_met"] else "MISSED"))
     w("route less start-up: chute/peer throughput %.2fx\n" %
       (results["route_without_startup"]["ratio_chute_over_peer"]["throughput"]
        or 0))

@@ -29,6 +29,12 @@ alpha 1 and the learned prior, and routes the held-out fold with
      computed by sklearn.metrics). Each figure pools the predictions of
      the five held-out folds, so every document is predicted once.
 
+  3. Asserted: one store learns every document, and `chute evaluate
+     --folds-csv` on the same folds (each fold's model made by subtracting
+     its stored counts) must route every document as its fold's store did,
+     with the same posteriors, and report the same accuracy and macro-F1
+     (evaluate_agreement.py).
+
 Prints the figures and writes them to BUILD_DIR/reference-results/
 <corpus>.json. Exits non-zero, naming every disagreement, on failure.
 """
@@ -46,6 +52,7 @@ from sklearn.naive_bayes import MultinomialNB
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 import corpora  # noqa: E402
+import evaluate_agreement  # noqa: E402
 import nb_agreement  # noqa: E402
 
 HERE = os.path.dirname(os.path.abspath(__file__))
@@ -121,6 +128,7 @@ def main():
 
         agreement = nb_agreement.Agreement()
         truth, chute_pred, default_pred = [], [], []
+        all_decisions = {}
         chute_seconds = 0.0
         for fold in range(1, FOLDS + 1):
             learn = [(files[r], q) for r, q, k in rows if k != fold]
@@ -134,6 +142,7 @@ def main():
             chute.learn_csv(manifest)
             decisions = chute.route([f for f, _ in held], top=len(queues))
             chute_seconds += time.monotonic() - t0
+            all_decisions.update(decisions)
 
             held_files = [f for f, _ in held]
             vectorizer, model = nb_agreement.fit_reference(
@@ -150,6 +159,11 @@ def main():
             truth += [q for _, q in held]
             chute_pred += [decisions[f]["queue"] if f in decisions else ""
                            for f in held_files]
+
+        t0 = time.monotonic()
+        evaluate_summary, evaluate_failures = evaluate_agreement.check(
+            binary, scratch, rows, files, all_decisions, ALPHA, PRIOR)
+        evaluate_seconds = time.monotonic() - t0
 
     def figures(pred):
         return {"accuracy": accuracy_score(truth, pred),
@@ -171,6 +185,10 @@ def main():
             "log_posteriors": agreement.posteriors,
             "largest_relative_gap": agreement.max_relative_gap,
             "disagreements": agreement.disagreements},
+        "chute_evaluate_on_the_same_folds": {
+            "summary": evaluate_summary,
+            "disagreements": len(evaluate_failures),
+            "seconds_learn_and_evaluate": round(evaluate_seconds, 2)},
         "seconds": {"chute_learn_and_route": round(chute_seconds, 2),
                     "total": round(time.monotonic() - started, 2)},
     }
@@ -192,8 +210,14 @@ def main():
           f"{agreement.summary()}")
     print(f"  chute learn+route {chute_seconds:.1f} s, total "
           f"{results['seconds']['total']:.1f} s; results in {out_path}")
+    print(f"  chute evaluate --folds-csv on one store: {evaluate_summary}")
     for message in agreement.failures:
         print(f"  DISAGREES: {message}")
+    for message in evaluate_failures[:50]:
+        print(f"  EVALUATE DISAGREES: {message}")
+    if evaluate_failures:
+        sys.exit("FAILED: chute evaluate disagrees with the per-fold stores "
+                 "(details above)")
     if agreement.failures:
         sys.exit("FAILED: chute disagrees with scikit-learn's MultinomialNB "
                  "fed chute's own terms (details above)")
