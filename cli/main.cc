@@ -21,6 +21,10 @@ constexpr chute::Command kCommands[] = {
      chute::SetupQueues},
     {"terms-of", "print the terms chute counts for a document", chute::SetupTermsOf},
     {"why", "explain a routing decision: the terms that pulled each way", chute::SetupWhy},
+    {"correct", "move learned documents to the queues reviewers name (a CSV file)",
+     chute::SetupCorrect},
+    {"forget", "unlearn documents exactly and erase what the store kept of them",
+     chute::SetupForget},
 };
 
 // Levenshtein distance, for "did you mean" (common practice).
