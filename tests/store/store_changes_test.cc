@@ -8,6 +8,7 @@
 #include <cstdint>
 #include <map>
 #include <cstdio>
+#include <filesystem>
 #include <memory>
 #include <random>
 #include <string>
@@ -162,6 +163,47 @@ TEST_F(StoreChangesTest, ForgetGivesTheModelOfAStoreThatNeverLearnedTheDocuments
   std::optional<LedgerEntry> entry;
   ASSERT_TRUE(store->FindDocument(docs[17].digest, &entry).ok());
   EXPECT_FALSE(entry.has_value());
+}
+
+// The planted word (a term, and part of the source path) is in the store
+// file or its write-ahead log after learning, and in neither file, nor the
+// -shm file, after forgetting, while the connection is still open.
+TEST_F(StoreChangesTest, ForgetLeavesNoByteOfTheDocumentInTheFilesOrTheLog) {
+  const std::string planted = "zqxunique1234";
+  std::vector<Doc> docs = Corpus();
+  docs[9].terms.push_back(planted);
+  std::unique_ptr<Store> store;
+  ASSERT_TRUE(Store::Create(dir_.File("s.db"), StoreSettings{}, &store).ok());
+  LearnBatch batch;
+  for (const Doc& d : docs) {
+    batch.Add(d.digest, d.queue, d.digest == docs[9].digest ? "/inbox/" + planted + ".txt"
+                                                            : SourceOf(d),
+              d.terms);
+  }
+  LearnResult learned;
+  ASSERT_TRUE(store->Learn(batch, kChange.now, &learned).ok());
+  const std::string db = store->path();
+  auto count = [&](const std::string& file) {
+    const std::string bytes = testing_files::ReadFile(file);
+    size_t n = 0;
+    for (size_t at = bytes.find(planted); at != std::string::npos;
+         at = bytes.find(planted, at + 1)) {
+      ++n;
+    }
+    return n;
+  };
+  ASSERT_TRUE(std::filesystem::exists(db + "-wal"));
+  ASSERT_GE(count(db) + count(db + "-wal"), 2u);  // term and path, at least
+  ForgetResult result;
+  ASSERT_TRUE(store->Forget({docs[9].digest}, kChange, &result).ok());
+  EXPECT_TRUE(result.checkpointed);
+  ASSERT_TRUE(std::filesystem::exists(db + "-wal"));
+  EXPECT_EQ(std::filesystem::file_size(db + "-wal"), 0u);
+  EXPECT_EQ(count(db), 0u);
+  EXPECT_EQ(count(db + "-wal"), 0u);
+  EXPECT_EQ(count(db + "-shm"), 0u);
+  // And the digest is gone too.
+  EXPECT_EQ(testing_files::ReadFile(db).find(docs[9].digest), std::string::npos);
 }
 
 TEST_F(StoreChangesTest, ForgetDeletesZeroRowsAndShrinksTheVocabulary) {
