@@ -216,8 +216,7 @@ int RunCorrect(const CorrectOptions& o) {
       line_of_batch_doc.push_back(lines.size());
       lines.push_back(line);
     } else {
-      refuse(std::string("no such file, and no learned document has this path") +
-             (nd.name.prefix.empty() ? "" : " or digest"));
+      refuse(UnknownReason(line.document, nd));
     }
   }
 

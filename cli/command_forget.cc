@@ -119,9 +119,7 @@ int RunForget(const ForgetOptions& o) {
       line.reason = "matches several learned documents (" + Candidates(r) +
                     "); give more of the digest";
     } else {
-      line.reason = nd.is_file ? "no learned document has this file's digest or path"
-                               : "no such file, and no learned document has this path" +
-                                     std::string(nd.name.prefix.empty() ? "" : " or digest");
+      line.reason = UnknownReason(arg, nd);
     }
     if (line.outcome == "refused") Report("forget", arg + ": " + line.reason);
     lines.push_back(std::move(line));

@@ -43,6 +43,18 @@ void NameDocument(const std::string& arg, const std::string& folder,
   }
 }
 
+std::string UnknownReason(const std::string& arg, const NamedDocument& named) {
+  if (named.is_file) return "no learned document has this file's digest or path";
+  if (!named.name.prefix.empty()) {
+    return "no such file, and no learned document has this path or digest prefix";
+  }
+  if (!arg.empty() && arg.size() < kMinDigestPrefix && IsHex(arg)) {
+    return "no such file (a digest prefix needs at least " + std::to_string(kMinDigestPrefix) +
+           " hex digits)";
+  }
+  return "no such file, and no learned document has this path";
+}
+
 std::string ShortDigest(const std::string& digest) { return digest.substr(0, 12); }
 
 }  // namespace chute

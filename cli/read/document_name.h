@@ -30,6 +30,9 @@ struct NamedDocument {
 void NameDocument(const std::string& arg, const std::string& folder,
                   const ReadOptions& options, NamedDocument* out);
 
+// Why a name matched no learned document, for the report.
+std::string UnknownReason(const std::string& arg, const NamedDocument& named);
+
 // "a1b2c3d4e5f6…" style: the first 12 hex digits, for messages.
 std::string ShortDigest(const std::string& digest);
 
