@@ -27,6 +27,7 @@ CommandRun SetupRoute(CLI::App* command);
 CommandRun SetupQueues(CLI::App* command);
 CommandRun SetupTermsOf(CLI::App* command);
 CommandRun SetupWhy(CLI::App* command);
+CommandRun SetupTerms(CLI::App* command);
 CommandRun SetupForget(CLI::App* command);
 CommandRun SetupCorrect(CLI::App* command);
 

@@ -21,6 +21,8 @@ constexpr chute::Command kCommands[] = {
      chute::SetupQueues},
     {"terms-of", "print the terms chute counts for a document", chute::SetupTermsOf},
     {"why", "explain a routing decision: the terms that pulled each way", chute::SetupWhy},
+    {"terms", "per queue, the terms that most set it apart from the other queues",
+     chute::SetupTerms},
     {"correct", "move learned documents to the queues reviewers name (a CSV file)",
      chute::SetupCorrect},
     {"forget", "unlearn documents exactly and erase what the store kept of them",
