@@ -154,7 +154,8 @@ class Store {
   Status ReadLedger(const std::function<void(LedgerDocument&)>& fn);
 
   // Learns a batch in one transaction. Queues are created on demand;
-  // documents already in the ledger are not counted again (see
+  // documents already in the ledger are not counted again, and one known
+  // under another queue is moved there, as Correct does (see
   // LearnOutcome); counts are summed in memory and written in key order.
   // `now` is the RFC 3339 UTC time recorded in the ledger.
   Status Learn(const LearnBatch& batch, const std::string& now,
