@@ -1,7 +1,6 @@
 // chute correct: moves learned documents to the queues a reviewer says they
 // belong in (and learns the new ones), from a CSV file, in one transaction.
 #include <CLI/CLI.hpp>
-
 #include <map>
 #include <set>
 
@@ -60,14 +59,17 @@ void PrintLines(const std::vector<Line>& lines, OutputFormat format) {
       Print(w.EndObject().Take() + "\n");
     }
   } else {
-    Print(CsvRecordLine({"document", "digest", "from", "to", "outcome", "reason"}));
+    Print(CsvRecordLine(
+        {"document", "digest", "from", "to", "outcome", "reason"}));
     for (const Line& l : lines) {
-      Print(CsvRecordLine({l.document, l.digest, l.from, l.to, l.outcome, l.reason}));
+      Print(CsvRecordLine(
+          {l.document, l.digest, l.from, l.to, l.outcome, l.reason}));
     }
   }
 }
 
-void PrintSummary(const std::vector<Line>& lines, const std::string& by, Store* store) {
+void PrintSummary(const std::vector<Line>& lines, const std::string& by,
+                  Store* store) {
   struct Tally {
     int64_t into = 0, out_of = 0, learned = 0;
   };
@@ -92,12 +94,15 @@ void PrintSummary(const std::vector<Line>& lines, const std::string& by, Store* 
   for (const QueueInfo& q : queues) {
     auto it = per_queue.find(q.name);
     if (it == per_queue.end()) continue;
-    table.AddRow({q.name, std::to_string(it->second.into), std::to_string(it->second.out_of),
-                  std::to_string(it->second.learned), std::to_string(q.documents)});
+    table.AddRow({q.name, std::to_string(it->second.into),
+                  std::to_string(it->second.out_of),
+                  std::to_string(it->second.learned),
+                  std::to_string(q.documents)});
   }
   if (!per_queue.empty()) Print(table.Render());
-  Print("corrected " + std::to_string(outcomes["corrected"]) + " documents; learned " +
-        std::to_string(outcomes["learned"]) + " new; " + std::to_string(outcomes["unchanged"]) +
+  Print("corrected " + std::to_string(outcomes["corrected"]) +
+        " documents; learned " + std::to_string(outcomes["learned"]) +
+        " new; " + std::to_string(outcomes["unchanged"]) +
         " already in their queue; " + std::to_string(outcomes["refused"]) +
         " lines refused; by " + by + "\n");
 }
@@ -109,13 +114,16 @@ int RunCorrect(const CorrectOptions& o) {
     return kExitFailed;
   }
   if (records.empty()) {
-    Report("correct", o.csv + ": empty; expected a header 'document,queue' or 'path,queue'");
+    Report(
+        "correct",
+        o.csv + ": empty; expected a header 'document,queue' or 'path,queue'");
     return kExitFailed;
   }
   int doc_col = -1, queue_col = -1;
   const auto& header = records[0].fields;
   for (size_t i = 0; i < header.size(); ++i) {
-    if (header[i] == "document" || header[i] == "path") doc_col = static_cast<int>(i);
+    if (header[i] == "document" || header[i] == "path")
+      doc_col = static_cast<int>(i);
     if (header[i] == "queue") queue_col = static_cast<int>(i);
   }
   if (doc_col < 0 || queue_col < 0) {
@@ -151,13 +159,17 @@ int RunCorrect(const CorrectOptions& o) {
   for (size_t r = 1; r < records.size(); ++r) {
     const CsvRecord& rec = records[r];
     auto field = [&](int col) {
-      return static_cast<size_t>(col) < rec.fields.size() ? rec.fields[col] : std::string();
+      return static_cast<size_t>(col) < rec.fields.size() ? rec.fields[col]
+                                                          : std::string();
     };
-    Line line{rec.line, field(doc_col), "", "", field(queue_col), "refused", ""};
+    Line line{rec.line,         field(doc_col), "", "",
+              field(queue_col), "refused",      ""};
     auto refuse = [&](std::string reason) {
       line.reason = std::move(reason);
-      Report("correct", o.csv + ": line " + std::to_string(rec.line) + ": " +
-                            (line.document.empty() ? "" : line.document + ": ") + line.reason);
+      Report("correct",
+             o.csv + ": line " + std::to_string(rec.line) + ": " +
+                 (line.document.empty() ? "" : line.document + ": ") +
+                 line.reason);
       lines.push_back(line);
     };
     if (line.document.empty()) {
@@ -199,7 +211,8 @@ int RunCorrect(const CorrectOptions& o) {
         list += (i ? ", " : "") + ShortDigest(res.candidates[i]);
       }
       refuse("matches several learned documents (" + list +
-             (res.candidates.size() > 5 ? ", ..." : "") + "); give more of the digest");
+             (res.candidates.size() > 5 ? ", ..." : "") +
+             "); give more of the digest");
     } else if (nd.is_file && !nd.read_status.ok()) {
       refuse(ReasonOf(nd.read_status, nd.path));
     } else if (nd.is_file) {
@@ -222,7 +235,8 @@ int RunCorrect(const CorrectOptions& o) {
 
   CorrectResult result;
   if (!moves.empty() || !batch.empty()) {
-    Status s = store->Correct(moves, batch, ChangeInfo{NowRfc3339(), o.by}, &result);
+    Status s =
+        store->Correct(moves, batch, ChangeInfo{NowRfc3339(), o.by}, &result);
     if (!s.ok()) {
       Report("correct", s.message() + "; nothing was changed");
       return kExitFailed;
@@ -274,7 +288,8 @@ CommandRun SetupCorrect(CLI::App* cmd) {
                 "create queues the file names that do not exist yet");
   AddFormatOption(cmd, &o->format);
   AddMaxBytesOption(cmd, &o->max_bytes);
-  cmd->footer(R"(Each line names a document and the queue it belongs in. The document is a
+  cmd->footer(
+      R"(Each line names a document and the queue it belongs in. The document is a
 path (relative paths are relative to the CSV file; the digest of the file as
 it is now, or else the path the store recorded when it learned it) or a
 digest prefix of at least 8 hex digits. A learned document's counts move

@@ -1,7 +1,6 @@
 // chute forget: unlearns documents exactly and erases what the store kept of
 // them, in one transaction.
 #include <CLI/CLI.hpp>
-
 #include <map>
 #include <set>
 
@@ -59,7 +58,8 @@ void PrintLines(const std::vector<Line>& lines, OutputFormat format) {
   } else {
     Print(CsvRecordLine({"document", "digest", "queue", "outcome", "reason"}));
     for (const Line& l : lines) {
-      Print(CsvRecordLine({l.document, l.digest, l.queue, l.outcome, l.reason}));
+      Print(
+          CsvRecordLine({l.document, l.digest, l.queue, l.outcome, l.reason}));
     }
   }
 }
@@ -80,7 +80,8 @@ void PrintSummary(const std::vector<Line>& lines, const ForgetResult& result,
   for (const QueueInfo& q : queues) {
     auto it = per_queue.find(q.name);
     if (it != per_queue.end()) {
-      table.AddRow({q.name, std::to_string(it->second), std::to_string(q.documents)});
+      table.AddRow(
+          {q.name, std::to_string(it->second), std::to_string(q.documents)});
     }
   }
   if (!per_queue.empty()) Print(table.Render());
@@ -127,15 +128,20 @@ int RunForget(const ForgetOptions& o) {
 
   ForgetResult result;
   if (!digests.empty()) {
-    if (Status s = store->Forget(digests, ChangeInfo{NowRfc3339(), o.by}, &result); !s.ok()) {
+    if (Status s =
+            store->Forget(digests, ChangeInfo{NowRfc3339(), o.by}, &result);
+        !s.ok()) {
       Report("forget", s.message() + "; nothing was forgotten");
       return kExitFailed;
     }
     if (!result.checkpointed) {
-      Report("forget",
-             "other processes kept reading the store, so its write-ahead log (" + o.db +
-                 "-wal) could not be emptied; it still holds old pages until the next "
-                 "checkpoint (run 'chute forget' again, or close the readers)");
+      Report(
+          "forget",
+          "other processes kept reading the store, so its write-ahead log (" +
+              o.db +
+              "-wal) could not be emptied; it still holds old pages until the "
+              "next "
+              "checkpoint (run 'chute forget' again, or close the readers)");
     }
   }
   if (o.format == OutputFormat::kTable) {
@@ -153,12 +159,14 @@ int RunForget(const ForgetOptions& o) {
 CommandRun SetupForget(CLI::App* cmd) {
   auto o = std::make_shared<ForgetOptions>();
   AddDbOption(cmd, &o->db);
-  cmd->add_option("documents", o->names,
-                  "paths of learned files, or digest prefixes (at least 8 hex digits)")
+  cmd->add_option(
+         "documents", o->names,
+         "paths of learned files, or digest prefixes (at least 8 hex digits)")
       ->required();
   AddByOption(cmd, &o->by);
   AddFormatOption(cmd, &o->format);
-  cmd->footer(R"(A path names the digest of the file as it is now, or else the path the
+  cmd->footer(
+      R"(A path names the digest of the file as it is now, or else the path the
 store recorded when it learned it. A name that matches several documents is
 reported, not guessed. Everything is forgotten in one transaction; the store's
 deleted content is overwritten with zeros and its write-ahead log emptied.

@@ -548,12 +548,16 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
   }
   // Corrections, in batch order, now that every new document is in the
   // ledger (a digest learned and relabelled in one batch moves too).
-  for (size_t i = 0; i < docs.size(); ++i) {
-    if (result->outcomes[i] != LearnOutcome::kCorrected) continue;
-    std::string from;
-    Status s = MoveInTransaction(docs[i].digest, queue_ids[queue_index[docs[i].queue]], &from);
+  {
+    std::vector<std::pair<std::string, int64_t>> moves;
+    for (size_t i = 0; i < docs.size(); ++i) {
+      if (result->outcomes[i] != LearnOutcome::kCorrected) continue;
+      moves.emplace_back(docs[i].digest, queue_ids[queue_index[docs[i].queue]]);
+    }
+    std::vector<std::string> from;
+    Status s = MoveInTransaction(moves, &from);
     if (!s.ok()) return fail(s);
-    ++result->corrected;
+    result->corrected = static_cast<int64_t>(moves.size());
   }
   // Queues created for documents that all turned out to be known stay out.
   {

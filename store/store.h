@@ -197,9 +197,11 @@ class Store {
   // The bodies of Learn and Correct, inside a transaction the caller holds.
   Status LearnInTransaction(const LearnBatch& batch, const std::string& now,
                             LearnResult* result);
-  // Moves a learned document to queue `to_queue_id`; *from gets the queue it
-  // was in. Nothing changes when it is already there.
-  Status MoveInTransaction(const std::string& digest, int64_t to_queue_id, std::string* from);
+  // Moves learned documents, in order: (digest, queue id) each to its queue;
+  // (*from)[i] gets the queue document i was in. Nothing changes for one
+  // already there.
+  Status MoveInTransaction(const std::vector<std::pair<std::string, int64_t>>& moves,
+                           std::vector<std::string>* from);
   // The id of a queue, created (validated) when missing.
   Status QueueIdInTransaction(const std::string& name, const std::string& now, int64_t* id,
                               bool* created);

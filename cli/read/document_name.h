@@ -17,11 +17,11 @@ namespace chute {
 inline constexpr size_t kMinDigestPrefix = 8;
 
 struct NamedDocument {
-  std::string path;     // the argument as a path (after `folder` was applied)
+  std::string path;      // the argument as a path (after `folder` was applied)
   bool is_file = false;  // a readable regular file is there
-  Status read_status;   // why the file could not be read, when it could not
-  Document document;    // the file's contents, when is_file and read
-  DocumentName name;    // what to look up
+  Status read_status;    // why the file could not be read, when it could not
+  Document document;     // the file's contents, when is_file and read
+  DocumentName name;     // what to look up
 };
 
 // Builds the name for `arg`. A relative path is taken relative to `folder`

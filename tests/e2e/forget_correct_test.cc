@@ -27,7 +27,8 @@ std::string ReadBytes(const std::string& path) {
 
 class ForgetCorrectTest : public ::testing::Test {
  protected:
-  RunResult Chute(std::vector<std::string> args, const std::string& input = "") {
+  RunResult Chute(std::vector<std::string> args,
+                  const std::string& input = "") {
     return RunChute(args, dir_.path(), input);
   }
   void Init(const std::string& db) {
@@ -36,17 +37,26 @@ class ForgetCorrectTest : public ::testing::Test {
   }
   // A small harbour: three queues, a few letters each, in ROOT/<queue>/.
   void WriteTree(const std::string& root) {
-    dir_.Write(root + "/berths/b1.txt", "berth booking for the vessel Aurora, pier 4");
-    dir_.Write(root + "/berths/b2.txt", "please reserve a berth at pier 2 for two nights");
-    dir_.Write(root + "/berths/b3.txt", "berth reservation cancelled, vessel delayed");
-    dir_.Write(root + "/billing/i1.txt", "invoice 4471 unpaid, harbour dues for March");
-    dir_.Write(root + "/billing/i2.txt", "refund of the berth deposit, invoice attached");
-    dir_.Write(root + "/billing/i3.txt", "dues statement and late fee on the invoice");
-    dir_.Write(root + "/marina/m1.txt", "mooring buoy for a sailing yacht, marina pontoon");
-    dir_.Write(root + "/marina/m2.txt", "pontoon electricity at the marina is out");
+    dir_.Write(root + "/berths/b1.txt",
+               "berth booking for the vessel Aurora, pier 4");
+    dir_.Write(root + "/berths/b2.txt",
+               "please reserve a berth at pier 2 for two nights");
+    dir_.Write(root + "/berths/b3.txt",
+               "berth reservation cancelled, vessel delayed");
+    dir_.Write(root + "/billing/i1.txt",
+               "invoice 4471 unpaid, harbour dues for March");
+    dir_.Write(root + "/billing/i2.txt",
+               "refund of the berth deposit, invoice attached");
+    dir_.Write(root + "/billing/i3.txt",
+               "dues statement and late fee on the invoice");
+    dir_.Write(root + "/marina/m1.txt",
+               "mooring buoy for a sailing yacht, marina pontoon");
+    dir_.Write(root + "/marina/m2.txt",
+               "pontoon electricity at the marina is out");
   }
   std::string Route(const std::string& db) {
-    RunResult r = Chute({"route", "--db", db, "inbox", "--format", "jsonl", "--top", "10"});
+    RunResult r = Chute(
+        {"route", "--db", db, "inbox", "--format", "jsonl", "--top", "10"});
     EXPECT_EQ(r.exit_code, 0) << r.err;
     return r.out;
   }
@@ -57,7 +67,8 @@ class ForgetCorrectTest : public ::testing::Test {
   }
   std::vector<json> JsonLines(const std::string& out) {
     std::vector<json> rows;
-    for (const std::string& line : Lines(out)) rows.push_back(json::parse(line));
+    for (const std::string& line : Lines(out))
+      rows.push_back(json::parse(line));
     return rows;
   }
   TempDir dir_;
@@ -77,20 +88,24 @@ TEST_F(ForgetCorrectTest, ForgetErasesThePlantedStringFromEveryStoreFile) {
   // A second connection, open throughout, for the -shm and -wal files to
   // be searched while they exist.
   sqlite3* raw = nullptr;
-  ASSERT_EQ(sqlite3_open_v2(db.c_str(), &raw, SQLITE_OPEN_READWRITE, nullptr), SQLITE_OK);
-  ASSERT_EQ(sqlite3_exec(raw, "SELECT COUNT(*) FROM ledger", nullptr, nullptr, nullptr),
+  ASSERT_EQ(sqlite3_open_v2(db.c_str(), &raw, SQLITE_OPEN_READWRITE, nullptr),
+            SQLITE_OK);
+  ASSERT_EQ(sqlite3_exec(raw, "SELECT COUNT(*) FROM ledger", nullptr, nullptr,
+                         nullptr),
             SQLITE_OK);
   auto found = [&] {
     std::string where;
     for (const char* suffix : {"", "-wal", "-shm"}) {
-      if (ReadBytes(db + suffix).find(planted) != std::string::npos) where += "[s.db" + std::string(suffix) + "]";
+      if (ReadBytes(db + suffix).find(planted) != std::string::npos)
+        where += "[s.db" + std::string(suffix) + "]";
     }
     return where;
   };
   ASSERT_NE(found(), "") << "the test must first see the string it looks for";
 
-  RunResult r = Chute({"forget", "--db", "s.db", "l/billing/" + planted + "-letter.txt",
-                       "--by", "records-office"});
+  RunResult r =
+      Chute({"forget", "--db", "s.db", "l/billing/" + planted + "-letter.txt",
+             "--by", "records-office"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
   EXPECT_NE(r.out.find("by records-office"), std::string::npos) << r.out;
   EXPECT_NE(r.out.find("forgot 1 documents"), std::string::npos) << r.out;
@@ -113,14 +128,16 @@ TEST_F(ForgetCorrectTest, ForgetRoutesLikeAStoreThatNeverLearnedTheDocument) {
   WriteInbox();
   for (const char* name : {"all", "without"}) {
     Init(std::string(name) + ".db");
-    RunResult r = Chute({"learn", "--db", std::string(name) + ".db", "--tree", name});
+    RunResult r =
+        Chute({"learn", "--db", std::string(name) + ".db", "--tree", name});
     ASSERT_EQ(r.exit_code, 0) << r.err;
   }
   const std::string before = Route("all.db");
   // One by path, one by a digest prefix.
-  const std::string m2 = Sha256Hex(ReadBytes(dir_.path() + "/all/marina/m2.txt"));
-  RunResult r = Chute({"forget", "--db", "all.db", "all/billing/i2.txt", m2.substr(0, 10),
-                       "--format", "jsonl"});
+  const std::string m2 =
+      Sha256Hex(ReadBytes(dir_.path() + "/all/marina/m2.txt"));
+  RunResult r = Chute({"forget", "--db", "all.db", "all/billing/i2.txt",
+                       m2.substr(0, 10), "--format", "jsonl"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
   std::vector<json> rows = JsonLines(r.out);
   ASSERT_EQ(rows.size(), 2u);
@@ -138,7 +155,8 @@ TEST_F(ForgetCorrectTest, ForgetRoutesLikeAStoreThatNeverLearnedTheDocument) {
   EXPECT_EQ(qa.out, qw.out);
 }
 
-TEST_F(ForgetCorrectTest, ForgetReportsUnknownAndAmbiguousNamesWithoutGuessing) {
+TEST_F(ForgetCorrectTest,
+       ForgetReportsUnknownAndAmbiguousNamesWithoutGuessing) {
   Init("s.db");
   // Two documents whose digests share their first 8 hex digits, found by
   // counting up (a birthday search over 32 bits: some 10^5 tries).
@@ -158,10 +176,14 @@ TEST_F(ForgetCorrectTest, ForgetReportsUnknownAndAmbiguousNamesWithoutGuessing) 
   ASSERT_EQ(Chute({"learn", "--db", "s.db", "--tree", "l"}).exit_code, 0);
   const std::string prefix = Sha256Hex(a).substr(0, 8);
 
-  RunResult none = Chute({"forget", "--db", "s.db", "nothing-here.txt", prefix});
+  RunResult none =
+      Chute({"forget", "--db", "s.db", "nothing-here.txt", prefix});
   EXPECT_EQ(none.exit_code, 1);  // nothing forgotten
-  EXPECT_NE(none.err.find("nothing-here.txt: no such file"), std::string::npos) << none.err;
-  EXPECT_NE(none.err.find("matches several learned documents"), std::string::npos) << none.err;
+  EXPECT_NE(none.err.find("nothing-here.txt: no such file"), std::string::npos)
+      << none.err;
+  EXPECT_NE(none.err.find("matches several learned documents"),
+            std::string::npos)
+      << none.err;
 
   RunResult some = Chute({"forget", "--db", "s.db", prefix, "l/billing/c.txt",
                           "l/billing/c.txt", "--format", "jsonl"});
@@ -184,29 +206,33 @@ TEST_F(ForgetCorrectTest, ForgetFallsBackToTheStoredPathOfAChangedFile) {
   WriteTree("l");
   ASSERT_EQ(Chute({"learn", "--db", "s.db", "--tree", "l"}).exit_code, 0);
   dir_.Write("l/marina/m1.txt", "edited since it was learned");
-  RunResult r = Chute({"forget", "--db", "s.db", "l/marina/m1.txt", "--format", "jsonl"});
+  RunResult r =
+      Chute({"forget", "--db", "s.db", "l/marina/m1.txt", "--format", "jsonl"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
   EXPECT_EQ(JsonLines(r.out).at(0)["queue"], "marina");
 }
 
-TEST_F(ForgetCorrectTest, LearningAKnownDocumentUnderAnotherQueueIsACorrection) {
+TEST_F(ForgetCorrectTest,
+       LearningAKnownDocumentUnderAnotherQueueIsACorrection) {
   WriteTree("l");
   WriteInbox();
   Init("s.db");
   ASSERT_EQ(Chute({"learn", "--db", "s.db", "--tree", "l"}).exit_code, 0);
-  RunResult r = Chute({"learn", "--db", "s.db", "--queue", "marina", "l/berths/b2.txt",
-                       "--format", "jsonl"});
+  RunResult r = Chute({"learn", "--db", "s.db", "--queue", "marina",
+                       "l/berths/b2.txt", "--format", "jsonl"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
   json row = JsonLines(r.out).at(0);
   EXPECT_EQ(row["outcome"], "corrected");
-  EXPECT_NE(row["reason"].get<std::string>().find("'berths'"), std::string::npos);
+  EXPECT_NE(row["reason"].get<std::string>().find("'berths'"),
+            std::string::npos);
   // The same model as learning b2 under marina from the start.
   WriteTree("right");
   std::filesystem::create_directories(dir_.path() + "/right/marina");
   std::filesystem::rename(dir_.path() + "/right/berths/b2.txt",
                           dir_.path() + "/right/marina/b2.txt");
   Init("right.db");
-  ASSERT_EQ(Chute({"learn", "--db", "right.db", "--tree", "right"}).exit_code, 0);
+  ASSERT_EQ(Chute({"learn", "--db", "right.db", "--tree", "right"}).exit_code,
+            0);
   EXPECT_EQ(Route("s.db"), Route("right.db"));
 }
 
@@ -216,10 +242,13 @@ TEST_F(ForgetCorrectTest, CorrectionsFileMovesCountsExactly) {
   Init("s.db");
   ASSERT_EQ(Chute({"learn", "--db", "s.db", "--tree", "l"}).exit_code, 0);
   const std::string before = Route("s.db");
-  const std::string i2 = Sha256Hex(ReadBytes(dir_.path() + "/l/billing/i2.txt"));
-  dir_.Write("fixes/today.csv", "path,queue\n../l/berths/b3.txt,marina\n" + i2.substr(0, 12) +
+  const std::string i2 =
+      Sha256Hex(ReadBytes(dir_.path() + "/l/billing/i2.txt"));
+  dir_.Write("fixes/today.csv", "path,queue\n../l/berths/b3.txt,marina\n" +
+                                    i2.substr(0, 12) +
                                     ",berths\n../l/marina/m1.txt,marina\n");
-  RunResult r = Chute({"correct", "--db", "s.db", "fixes/today.csv", "--by", "j.moreau"});
+  RunResult r =
+      Chute({"correct", "--db", "s.db", "fixes/today.csv", "--by", "j.moreau"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
   EXPECT_NE(r.out.find("corrected 2 documents"), std::string::npos) << r.out;
   EXPECT_NE(r.out.find("1 already in their queue"), std::string::npos) << r.out;
@@ -232,7 +261,8 @@ TEST_F(ForgetCorrectTest, CorrectionsFileMovesCountsExactly) {
   std::filesystem::rename(dir_.path() + "/right/billing/i2.txt",
                           dir_.path() + "/right/berths/i2.txt");
   Init("right.db");
-  ASSERT_EQ(Chute({"learn", "--db", "right.db", "--tree", "right"}).exit_code, 0);
+  ASSERT_EQ(Chute({"learn", "--db", "right.db", "--tree", "right"}).exit_code,
+            0);
   EXPECT_EQ(Route("s.db"), Route("right.db"));
 }
 
@@ -257,15 +287,18 @@ TEST_F(ForgetCorrectTest, CorrectionsFileWithBomCrlfQuotesAndBadLines) {
   dir_.Write("new/letter.txt", "a yacht asks for a marina pontoon");
   const std::string prefix = Sha256Hex(a).substr(0, 8);
   const std::string csv =
-      "\xEF\xBB\xBF" "document,queue\r\n"            // line 1: BOM, CRLF
-      "\"l/berths/pier, north.txt\",billing\r\n"      // 2: quoted, with a comma
-      + prefix + ",billing\r\n"                       // 3: ambiguous prefix
-      "l/billing/c.txt,marina\r\n"                    // 4: unknown queue
-      "l/billing/c.txt\r\n"                           // 5: missing queue field
-      "\"new/letter.txt\",berths\r\n"                 // 6: unknown, file exists: learned
-      "gone.txt,berths\r\n";                          // 7: unknown, no file
+      "\xEF\xBB\xBF"
+      "document,queue\r\n"                        // line 1: BOM, CRLF
+      "\"l/berths/pier, north.txt\",billing\r\n"  // 2: quoted, with a comma
+      + prefix +
+      ",billing\r\n"                   // 3: ambiguous prefix
+      "l/billing/c.txt,marina\r\n"     // 4: unknown queue
+      "l/billing/c.txt\r\n"            // 5: missing queue field
+      "\"new/letter.txt\",berths\r\n"  // 6: unknown, file exists: learned
+      "gone.txt,berths\r\n";           // 7: unknown, no file
   dir_.Write("fixes.csv", csv);
-  RunResult r = Chute({"correct", "--db", "s.db", "fixes.csv", "--format", "jsonl"});
+  RunResult r =
+      Chute({"correct", "--db", "s.db", "fixes.csv", "--format", "jsonl"});
   EXPECT_EQ(r.exit_code, 3) << r.err;
   std::vector<json> rows = JsonLines(r.out);
   ASSERT_EQ(rows.size(), 6u) << r.out;
@@ -281,28 +314,34 @@ TEST_F(ForgetCorrectTest, CorrectionsFileWithBomCrlfQuotesAndBadLines) {
   EXPECT_EQ(rows[4]["to"], "berths");
   EXPECT_EQ(rows[5]["outcome"], "refused");
   for (const char* line : {"line 3: ", "line 4: ", "line 5: ", "line 7: "}) {
-    EXPECT_NE(r.err.find(std::string("fixes.csv: ") + line), std::string::npos) << line << r.err;
+    EXPECT_NE(r.err.find(std::string("fixes.csv: ") + line), std::string::npos)
+        << line << r.err;
   }
   EXPECT_NE(r.err.find("matches several learned documents"), std::string::npos);
   EXPECT_NE(r.err.find("--create-queues"), std::string::npos);
   EXPECT_NE(r.err.find("no queue"), std::string::npos);
   std::map<std::string, int> docs;
-  for (const json& q : JsonLines(Chute({"queues", "--db", "s.db", "--format", "jsonl"}).out)) {
+  for (const json& q :
+       JsonLines(Chute({"queues", "--db", "s.db", "--format", "jsonl"}).out)) {
     docs[q["queue"]] = q["documents"];
   }
   EXPECT_EQ(docs, (std::map<std::string, int>{{"berths", 3}, {"billing", 2}}));
 
   // With --create-queues the marina line is applied.
   dir_.Write("more.csv", "document,queue\nl/billing/c.txt,marina\n");
-  RunResult more = Chute({"correct", "--db", "s.db", "more.csv", "--create-queues"});
+  RunResult more =
+      Chute({"correct", "--db", "s.db", "more.csv", "--create-queues"});
   EXPECT_EQ(more.exit_code, 0) << more.err;
   EXPECT_NE(more.out.find("marina"), std::string::npos) << more.out;
 
   // A header without the queue column: the whole file fails, naming line 1.
-  dir_.Write("bad.csv", "\xEF\xBB\xBF" "document,team\r\nl/billing/c.txt,billing\r\n");
+  dir_.Write("bad.csv",
+             "\xEF\xBB\xBF"
+             "document,team\r\nl/billing/c.txt,billing\r\n");
   RunResult bad = Chute({"correct", "--db", "s.db", "bad.csv"});
   EXPECT_EQ(bad.exit_code, 1);
-  EXPECT_NE(bad.err.find("bad.csv: line 1: the header has no 'queue' column"), std::string::npos)
+  EXPECT_NE(bad.err.find("bad.csv: line 1: the header has no 'queue' column"),
+            std::string::npos)
       << bad.err;
 }
 

@@ -6,9 +6,9 @@
 
 #include <algorithm>
 #include <cstdint>
-#include <map>
 #include <cstdio>
 #include <filesystem>
+#include <map>
 #include <memory>
 #include <random>
 #include <string>
@@ -42,7 +42,9 @@ std::string Digest(const char* head, unsigned n) {
   return buf;
 }
 
-std::string SourceOf(const Doc& d) { return "/inbox/" + d.digest.substr(0, 12) + ".txt"; }
+std::string SourceOf(const Doc& d) {
+  return "/inbox/" + d.digest.substr(0, 12) + ".txt";
+}
 
 // A seeded corpus: 40 documents over 4 queues, terms drawn from a skewed
 // vocabulary of 60, so that some terms occur in one document only.
@@ -66,13 +68,16 @@ std::vector<Doc> Corpus() {
 
 // N(q, w) by (queue, term), with each queue's documents and N(q) under the
 // term "" (no term is empty).
-std::map<std::pair<std::string, std::string>, int64_t> ByName(const ModelCounts& mc) {
+std::map<std::pair<std::string, std::string>, int64_t> ByName(
+    const ModelCounts& mc) {
   std::map<std::pair<std::string, std::string>, int64_t> out;
   const size_t nq = mc.queues.size();
   for (size_t q = 0; q < nq; ++q) {
-    out[{mc.queues[q].name, ""}] = mc.queues[q].documents * 1000000 + mc.queues[q].tokens;
+    out[{mc.queues[q].name, ""}] =
+        mc.queues[q].documents * 1000000 + mc.queues[q].tokens;
     for (size_t row = 0; row < mc.terms.size(); ++row) {
-      if (int64_t n = mc.counts[row * nq + q]; n != 0) out[{mc.queues[q].name, mc.terms[row]}] = n;
+      if (int64_t n = mc.counts[row * nq + q]; n != 0)
+        out[{mc.queues[q].name, mc.terms[row]}] = n;
     }
   }
   return out;
@@ -81,13 +86,15 @@ std::map<std::pair<std::string, std::string>, int64_t> ByName(const ModelCounts&
 class StoreChangesTest : public testing::Test {
  protected:
   // A store that learned docs in one batch.
-  std::unique_ptr<Store> Build(const std::string& name, const std::vector<Doc>& docs) {
+  std::unique_ptr<Store> Build(const std::string& name,
+                               const std::vector<Doc>& docs) {
     std::unique_ptr<Store> store;
     Status s = Store::Create(dir_.File(name), StoreSettings{}, &store);
     EXPECT_TRUE(s.ok()) << s.message();
     if (!s.ok()) return nullptr;
     LearnBatch batch;
-    for (const Doc& d : docs) batch.Add(d.digest, d.queue, SourceOf(d), d.terms);
+    for (const Doc& d : docs)
+      batch.Add(d.digest, d.queue, SourceOf(d), d.terms);
     LearnResult result;
     s = store->Learn(batch, kChange.now, &result);
     EXPECT_TRUE(s.ok()) << s.message();
@@ -108,7 +115,8 @@ class StoreChangesTest : public testing::Test {
     ASSERT_EQ(a.queues.size(), b.queues.size());
     for (size_t q = 0; q < a.queues.size(); ++q) {
       EXPECT_EQ(a.queues[q].name, b.queues[q].name);
-      EXPECT_EQ(a.queues[q].documents, b.queues[q].documents) << a.queues[q].name;
+      EXPECT_EQ(a.queues[q].documents, b.queues[q].documents)
+          << a.queues[q].name;
       EXPECT_EQ(a.queues[q].tokens, b.queues[q].tokens) << a.queues[q].name;
       EXPECT_EQ(a.queues[q].set_prior, b.queues[q].set_prior);
     }
@@ -120,7 +128,8 @@ class StoreChangesTest : public testing::Test {
     EXPECT_EQ(va, vb);
     EXPECT_EQ(va, static_cast<int64_t>(a.terms.size()));
     // And the scores, to the bit, for every document of the corpus.
-    Model ma = Model::Build(a, ModelOptions{}), mb = Model::Build(b, ModelOptions{});
+    Model ma = Model::Build(a, ModelOptions{}),
+          mb = Model::Build(b, ModelOptions{});
     for (const Doc& d : Corpus()) {
       DocumentRows ra, rb;
       int64_t ua = 0, ub = 0;
@@ -137,7 +146,8 @@ class StoreChangesTest : public testing::Test {
   TempDir dir_;
 };
 
-TEST_F(StoreChangesTest, ForgetGivesTheModelOfAStoreThatNeverLearnedTheDocuments) {
+TEST_F(StoreChangesTest,
+       ForgetGivesTheModelOfAStoreThatNeverLearnedTheDocuments) {
   const std::vector<Doc> docs = Corpus();
   std::unique_ptr<Store> store = Build("all.db", docs);
   ASSERT_NE(store, nullptr);
@@ -176,9 +186,10 @@ TEST_F(StoreChangesTest, ForgetLeavesNoByteOfTheDocumentInTheFilesOrTheLog) {
   ASSERT_TRUE(Store::Create(dir_.File("s.db"), StoreSettings{}, &store).ok());
   LearnBatch batch;
   for (const Doc& d : docs) {
-    batch.Add(d.digest, d.queue, d.digest == docs[9].digest ? "/inbox/" + planted + ".txt"
-                                                            : SourceOf(d),
-              d.terms);
+    batch.Add(
+        d.digest, d.queue,
+        d.digest == docs[9].digest ? "/inbox/" + planted + ".txt" : SourceOf(d),
+        d.terms);
   }
   LearnResult learned;
   ASSERT_TRUE(store->Learn(batch, kChange.now, &learned).ok());
@@ -203,7 +214,8 @@ TEST_F(StoreChangesTest, ForgetLeavesNoByteOfTheDocumentInTheFilesOrTheLog) {
   EXPECT_EQ(count(db + "-wal"), 0u);
   EXPECT_EQ(count(db + "-shm"), 0u);
   // And the digest is gone too.
-  EXPECT_EQ(testing_files::ReadFile(db).find(docs[9].digest), std::string::npos);
+  EXPECT_EQ(testing_files::ReadFile(db).find(docs[9].digest),
+            std::string::npos);
 }
 
 TEST_F(StoreChangesTest, ForgetDeletesZeroRowsAndShrinksTheVocabulary) {
@@ -226,24 +238,33 @@ TEST_F(StoreChangesTest, ForgetDeletesZeroRowsAndShrinksTheVocabulary) {
   Db raw = OpenRaw(store->path(), SQLITE_OPEN_READONLY);
   // permits' fee row reached zero and is gone; its permit row went from 2
   // to 1; no row of a deleted term is left.
-  EXPECT_EQ(QueryInt(raw.get(),
-                     "SELECT COUNT(*) FROM counts c JOIN terms t ON t.id = c.term_id "
-                     "JOIN queues q ON q.id = c.queue_id WHERE q.name = 'permits'"),
-            1);
+  EXPECT_EQ(
+      QueryInt(raw.get(),
+               "SELECT COUNT(*) FROM counts c JOIN terms t ON t.id = c.term_id "
+               "JOIN queues q ON q.id = c.queue_id WHERE q.name = 'permits'"),
+      1);
   EXPECT_EQ(QueryInt(raw.get(),
                      "SELECT n FROM counts c JOIN terms t ON t.id = c.term_id "
                      "JOIN queues q ON q.id = c.queue_id "
                      "WHERE q.name = 'permits' AND t.text = 'permit'"),
             1);
-  EXPECT_EQ(QueryInt(raw.get(), "SELECT COUNT(*) FROM terms WHERE text = 'unique-word'"), 0);
   EXPECT_EQ(QueryInt(raw.get(),
-                     "SELECT COUNT(*) FROM counts WHERE term_id NOT IN (SELECT id FROM terms)"),
+                     "SELECT COUNT(*) FROM terms WHERE text = 'unique-word'"),
             0);
-  EXPECT_EQ(QueryInt(raw.get(), "SELECT documents FROM queues WHERE name = 'permits'"), 1);
-  EXPECT_EQ(QueryInt(raw.get(), "SELECT tokens FROM queues WHERE name = 'permits'"), 1);
+  EXPECT_EQ(QueryInt(raw.get(),
+                     "SELECT COUNT(*) FROM counts WHERE term_id NOT IN (SELECT "
+                     "id FROM terms)"),
+            0);
+  EXPECT_EQ(QueryInt(raw.get(),
+                     "SELECT documents FROM queues WHERE name = 'permits'"),
+            1);
+  EXPECT_EQ(
+      QueryInt(raw.get(), "SELECT tokens FROM queues WHERE name = 'permits'"),
+      1);
 }
 
-TEST_F(StoreChangesTest, ForgettingAQueuesLastDocumentLeavesAQueueThatRoutesNothing) {
+TEST_F(StoreChangesTest,
+       ForgettingAQueuesLastDocumentLeavesAQueueThatRoutesNothing) {
   const std::vector<Doc> docs = {
       {Digest("00000001", 1), "permits", {"permit", "fee"}},
       {Digest("00000002", 2), "billing", {"fee", "invoice"}},
@@ -271,12 +292,14 @@ TEST_F(StoreChangesTest, ForgetOfAnUnknownDigestChangesNothing) {
   std::unique_ptr<Store> same = Build("same.db", docs);
   ASSERT_NE(store, nullptr);
   ForgetResult result;
-  Status s = store->Forget({docs[0].digest, Digest("99999999", 9)}, kChange, &result);
+  Status s =
+      store->Forget({docs[0].digest, Digest("99999999", 9)}, kChange, &result);
   EXPECT_EQ(s.code(), Status::Code::kNotFound);
   ExpectSameModel(store.get(), same.get());  // docs[0] is still learned
 }
 
-TEST_F(StoreChangesTest, CorrectionGivesTheModelOfAStoreThatLearnedTheRightQueue) {
+TEST_F(StoreChangesTest,
+       CorrectionGivesTheModelOfAStoreThatLearnedTheRightQueue) {
   std::vector<Doc> docs = Corpus();
   std::unique_ptr<Store> store = Build("wrong.db", docs);
   ASSERT_NE(store, nullptr);
@@ -314,13 +337,16 @@ TEST_F(StoreChangesTest, CorrectAndLearnShareOneTransaction) {
   // A good move and a new document, then a move to an invalid queue name:
   // nothing of it may stay.
   LearnBatch batch;
-  batch.Add(Digest("77777777", 7), "billing", "/inbox/new.txt", {"fresh", "fee"});
+  batch.Add(Digest("77777777", 7), "billing", "/inbox/new.txt",
+            {"fresh", "fee"});
   CorrectResult result;
-  Status s = store->Correct({{docs[0].digest, "careers"}, {docs[1].digest, "_review"}}, batch,
-                            kChange, &result);
+  Status s =
+      store->Correct({{docs[0].digest, "careers"}, {docs[1].digest, "_review"}},
+                     batch, kChange, &result);
   EXPECT_EQ(s.code(), Status::Code::kInvalidArgument);
   ExpectSameModel(store.get(), same.get());
-  s = store->Correct({{Digest("99999999", 9), "billing"}}, batch, kChange, &result);
+  s = store->Correct({{Digest("99999999", 9), "billing"}}, batch, kChange,
+                     &result);
   EXPECT_EQ(s.code(), Status::Code::kNotFound);
   ExpectSameModel(store.get(), same.get());
   // Valid, it is applied whole: the move and the new document.
@@ -343,7 +369,9 @@ TEST_F(StoreChangesTest, CorrectAndLearnShareOneTransaction) {
 TEST_F(StoreChangesTest, ResolvesByDigestSourceAndPrefix) {
   const std::vector<Doc> docs = {
       {Digest("abcdef01", 1), "permits", {"permit"}},
-      {Digest("abcdef01", 2), "permits", {"fee"}},  // shares 8 digits with the first
+      {Digest("abcdef01", 2),
+       "permits",
+       {"fee"}},  // shares 8 digits with the first
       {Digest("12345678", 3), "billing", {"fee"}},
   };
   std::unique_ptr<Store> store = Build("s.db", docs);
@@ -356,7 +384,9 @@ TEST_F(StoreChangesTest, ResolvesByDigestSourceAndPrefix) {
   EXPECT_EQ(r.entry.queue, "permits");
   // A file that changed since: its digest is unknown, its stored path names
   // the document.
-  ASSERT_TRUE(store->ResolveDocument({Digest("eeeeeeee", 5), SourceOf(docs[2]), ""}, &r).ok());
+  ASSERT_TRUE(
+      store->ResolveDocument({Digest("eeeeeeee", 5), SourceOf(docs[2]), ""}, &r)
+          .ok());
   ASSERT_EQ(r.kind, Resolution::Kind::kFound);
   EXPECT_EQ(r.entry.digest, docs[2].digest);
   // Prefixes: unique, ambiguous, longer and unique, unknown.
@@ -365,11 +395,14 @@ TEST_F(StoreChangesTest, ResolvesByDigestSourceAndPrefix) {
   EXPECT_EQ(r.entry.digest, docs[2].digest);
   ASSERT_TRUE(store->ResolveDocument({"", "", "abcdef01"}, &r).ok());
   ASSERT_EQ(r.kind, Resolution::Kind::kAmbiguous);
-  EXPECT_EQ(r.candidates, (std::vector<std::string>{docs[0].digest, docs[1].digest}));
-  ASSERT_TRUE(store->ResolveDocument({"", "", docs[1].digest.substr(0, 64)}, &r).ok());
+  EXPECT_EQ(r.candidates,
+            (std::vector<std::string>{docs[0].digest, docs[1].digest}));
+  ASSERT_TRUE(
+      store->ResolveDocument({"", "", docs[1].digest.substr(0, 64)}, &r).ok());
   ASSERT_EQ(r.kind, Resolution::Kind::kFound);
   EXPECT_EQ(r.entry.digest, docs[1].digest);
-  ASSERT_TRUE(store->ResolveDocument({"", "/inbox/none.txt", "abcdef02"}, &r).ok());
+  ASSERT_TRUE(
+      store->ResolveDocument({"", "/inbox/none.txt", "abcdef02"}, &r).ok());
   EXPECT_EQ(r.kind, Resolution::Kind::kUnknown);
   // Digits after the prefix's range: "abcdef00" < every "abcdef01..." but
   // the range [abcdef00, abcdef00g) holds none of them.
