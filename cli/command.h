@@ -32,6 +32,8 @@ CommandRun SetupEvaluate(CLI::App* command);
 CommandRun SetupCheck(CLI::App* command);
 CommandRun SetupBackup(CLI::App* command);
 CommandRun SetupRestore(CLI::App* command);
+CommandRun SetupForget(CLI::App* command);
+CommandRun SetupCorrect(CLI::App* command);
 
 }  // namespace chute
 

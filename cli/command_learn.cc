@@ -36,7 +36,7 @@ struct Line {
   std::string file;
   std::string queue;
   std::string digest;
-  std::string outcome;  // learned, already_learned, refused
+  std::string outcome;  // learned, already_learned, corrected, refused
   std::string reason;
 };
 
@@ -85,7 +85,8 @@ void PrintSummary(const std::vector<Line>& lines, const LearnResult& result, Sto
   Print(table.Render());
   Print("learned " + std::to_string(result.learned) + " documents (" +
         std::to_string(result.new_terms) + " new terms); " + std::to_string(known) +
-        " already known; " + std::to_string(refused) + " refused\n");
+        " already known; " + std::to_string(result.corrected) +
+        " corrected (moved from another queue); " + std::to_string(refused) + " refused\n");
 }
 
 int RunLearn(const LearnOptions& o) {
@@ -165,16 +166,12 @@ int RunLearn(const LearnOptions& o) {
         Report("learn", k.message());
         return kExitFailed;
       }
-      if (known) {
-        if (known->queue == f.queue) {
-          lines.push_back({f.path, f.queue, doc.digest, "already_learned", ""});
-        } else {
-          std::string reason = "already learned under queue '" + known->queue + "'";
-          Report("learn", where + ": " + reason);
-          lines.push_back({f.path, f.queue, doc.digest, "refused", reason});
-        }
+      if (known && known->queue == f.queue) {
+        lines.push_back({f.path, f.queue, doc.digest, "already_learned", ""});
         continue;
       }
+      // A known document under another queue is a correction: the store
+      // moves its stored counts (the outcome is set from its answer below).
       if (slot.terms.empty()) {
         std::string reason = "no terms to learn (empty, or nothing but spaces and punctuation)";
         Report("learn", where + ": " + reason);
@@ -198,10 +195,9 @@ int RunLearn(const LearnOptions& o) {
       Line& l = lines[line_of_batch_doc[i]];
       if (result.outcomes[i] == LearnOutcome::kAlreadyLearned) {
         l.outcome = "already_learned";
-      } else if (result.outcomes[i] == LearnOutcome::kOtherQueue) {
-        l.outcome = "refused";
-        l.reason = "already learned under queue '" + result.known_queue[i] + "'";
-        Report("learn", l.file + ": " + l.reason);
+      } else if (result.outcomes[i] == LearnOutcome::kCorrected) {
+        l.outcome = "corrected";
+        l.reason = "was learned under queue '" + result.known_queue[i] + "'; moved";
       }
     }
   }
@@ -237,7 +233,8 @@ CommandRun SetupLearn(CLI::App* cmd) {
   AddMaxBytesOption(cmd, &o->max_bytes);
   AddThreadsOption(cmd, &o->threads);
   cmd->footer(R"(Everything is learned in one transaction: all of it, or nothing.
-A document already learned under the same queue changes nothing.
+A document already learned under the same queue changes nothing; one learned
+under another queue is a correction: its counts move to the new queue.
 
 Examples:
   chute learn --tree corpora/port-authority/labelled/

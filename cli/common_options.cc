@@ -2,6 +2,9 @@
 
 #include <CLI/CLI.hpp>
 
+#include <pwd.h>
+#include <unistd.h>
+
 #include <cstdio>
 #include <cstdlib>
 #include <ctime>
@@ -76,6 +79,19 @@ std::string SourcePath(const std::string& path) {
   std::error_code ec;
   auto abs = std::filesystem::absolute(path, ec);
   return ec ? path : abs.lexically_normal().string();
+}
+
+void AddByOption(CLI::App* command, std::string* by) {
+  *by = LoginName();
+  command->add_option("--by", *by, "who asks for the change (default: your login name)");
+}
+
+std::string LoginName() {
+  if (const char* name = ::getlogin(); name != nullptr && *name != '\0') return name;
+  if (const passwd* pw = ::getpwuid(::geteuid()); pw != nullptr && pw->pw_name != nullptr) {
+    return pw->pw_name;
+  }
+  return "unknown";
 }
 
 std::string NowRfc3339() {

@@ -37,6 +37,13 @@ void AddMaxBytesOption(CLI::App* command, int64_t* max_bytes);
 // cores this process may use).
 void AddThreadsOption(CLI::App* command, size_t* threads);
 
+// --by NAME: who asks for a change; the default is LoginName().
+void AddByOption(CLI::App* command, std::string* by);
+
+// The login name (getlogin, else the password entry of the effective user,
+// else "unknown").
+std::string LoginName();
+
 // The default store path: $CHUTE_DB when set and not empty, else chute.db.
 std::string DefaultDbPath();
 

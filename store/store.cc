@@ -255,16 +255,46 @@ Status Store::ReadLedger(const std::function<void(LedgerDocument&)>& fn) {
 
 Status Store::Learn(const LearnBatch& batch, const std::string& now,
                     LearnResult* result) {
+  sql::Transaction tx(db_.get());
+  if (!tx.status().ok()) {
+    return Status::Busy(path_ + ": " + tx.status().message());
+  }
+  Status s = LearnInTransaction(batch, now, result);
+  if (!s.ok()) return s;
+  s = tx.Commit();
+  if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
+  return Status::Ok();
+}
+
+Status Store::QueueIdInTransaction(const std::string& name, const std::string& now,
+                                   int64_t* id, bool* created) {
+  *created = false;
+  sql::Statement find(db_.get(), "SELECT id FROM queues WHERE name = ?");
+  if (!find.ok()) return Status::IoError(path_ + ": " + find.error());
+  find.Bind(1, name);
+  if (find.Step() == SQLITE_ROW) {
+    *id = find.ColumnInt(0);
+    return Status::Ok();
+  }
+  Status v = ValidateQueueName(name);
+  if (!v.ok()) return v;
+  sql::Statement add(db_.get(), "INSERT INTO queues(name, created) VALUES(?, ?)");
+  if (!add.ok()) return Status::IoError(path_ + ": " + add.error());
+  Status s = add.Bind(1, name).Bind(2, now).Run();
+  if (!s.ok()) return s;
+  *id = sqlite3_last_insert_rowid(db_.get());
+  *created = true;
+  return Status::Ok();
+}
+
+Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now,
+                                 LearnResult* result) {
   *result = LearnResult();
   const auto& docs = batch.documents();
   sqlite3* db = db_.get();
   auto fail = [&](const Status& s) {
     return Status(s.code() == Status::Code::kOk ? Status::IoError("unknown error") : s);
   };
-  sql::Transaction tx(db);
-  if (!tx.status().ok()) {
-    return Status::Busy(path_ + ": " + tx.status().message());
-  }
 
   // Queues of the batch: existing ids, or created now.
   std::vector<std::string> queue_names;
@@ -275,23 +305,12 @@ Status Store::Learn(const LearnBatch& batch, const std::string& now,
     }
   }
   std::vector<int64_t> queue_ids(queue_names.size(), 0);
-  {
-    sql::Statement find(db, "SELECT id FROM queues WHERE name = ?");
-    sql::Statement add(db, "INSERT INTO queues(name, created) VALUES(?, ?)");
-    if (!find.ok() || !add.ok()) return Status::IoError(path_ + ": " + find.error() + add.error());
-    for (size_t i = 0; i < queue_names.size(); ++i) {
-      find.Bind(1, queue_names[i]);
-      if (find.Step() == SQLITE_ROW) {
-        queue_ids[i] = find.ColumnInt(0);
-      } else {
-        Status v = ValidateQueueName(queue_names[i]);
-        if (!v.ok()) return v;
-        Status s = add.Bind(1, queue_names[i]).Bind(2, now).Run();
-        if (!s.ok()) return fail(s);
-        queue_ids[i] = sqlite3_last_insert_rowid(db);
-      }
-      find.Reset();
-    }
+  std::vector<bool> queue_created(queue_names.size(), false);
+  for (size_t i = 0; i < queue_names.size(); ++i) {
+    bool created = false;
+    Status s = QueueIdInTransaction(queue_names[i], now, &queue_ids[i], &created);
+    if (!s.ok()) return fail(s);
+    queue_created[i] = created;
   }
 
   // Which documents are new; the ledger (and this batch) may know some.
@@ -302,21 +321,23 @@ Status Store::Learn(const LearnBatch& batch, const std::string& now,
                          "SELECT q.name FROM ledger l JOIN queues q ON q.id = l.queue_id "
                          "WHERE l.digest = ?");
     if (!known.ok()) return Status::IoError(path_ + ": " + known.error());
-    std::unordered_map<std::string_view, size_t> in_batch;
+    // The queue each digest is in after the documents before this one.
+    std::unordered_map<std::string_view, std::string_view> current;
     for (size_t i = 0; i < docs.size(); ++i) {
       std::string queue;
-      known.Bind(1, docs[i].digest);
-      if (known.Step() == SQLITE_ROW) queue = known.ColumnText(0);
-      known.Reset();
-      if (queue.empty()) {
-        auto [it, inserted] = in_batch.emplace(docs[i].digest, i);
-        if (!inserted) queue = docs[it->second].queue;
+      if (auto it = current.find(docs[i].digest); it != current.end()) {
+        queue = it->second;
+      } else {
+        known.Bind(1, docs[i].digest);
+        if (known.Step() == SQLITE_ROW) queue = known.ColumnText(0);
+        known.Reset();
       }
       if (!queue.empty()) {
         result->outcomes[i] = queue == docs[i].queue ? LearnOutcome::kAlreadyLearned
-                                                     : LearnOutcome::kOtherQueue;
+                                                     : LearnOutcome::kCorrected;
         result->known_queue[i] = queue;
       }
+      current[docs[i].digest] = docs[i].queue;
     }
   }
 
@@ -445,17 +466,28 @@ Status Store::Learn(const LearnBatch& batch, const std::string& now,
       if (!s.ok()) return fail(s);
     }
   }
+  // Corrections, in batch order, now that every new document is in the
+  // ledger (a digest learned and relabelled in one batch moves too).
+  {
+    std::vector<std::pair<std::string, int64_t>> moves;
+    for (size_t i = 0; i < docs.size(); ++i) {
+      if (result->outcomes[i] != LearnOutcome::kCorrected) continue;
+      moves.emplace_back(docs[i].digest, queue_ids[queue_index[docs[i].queue]]);
+    }
+    std::vector<std::string> from;
+    Status s = MoveInTransaction(moves, &from);
+    if (!s.ok()) return fail(s);
+    result->corrected = static_cast<int64_t>(moves.size());
+  }
   // Queues created for documents that all turned out to be known stay out.
   {
     sql::Statement drop(db, "DELETE FROM queues WHERE id = ? AND documents = 0");
     for (size_t q = 0; q < nq; ++q) {
-      if (queue_docs[q] != 0) continue;
+      if (queue_docs[q] != 0 || !queue_created[q]) continue;
       Status s = drop.Bind(1, queue_ids[q]).Run();
       if (!s.ok()) return fail(s);
     }
   }
-  Status s = tx.Commit();
-  if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();
 }
 

@@ -59,15 +59,66 @@ struct LedgerDocument {
 enum class LearnOutcome {
   kLearned,
   kAlreadyLearned,  // same digest, same queue: nothing changed
-  kOtherQueue,      // same digest learned under another queue: refused
+  kCorrected,       // same digest learned under another queue: its stored
+                    // counts were moved to this document's queue
 };
 
 struct LearnResult {
   std::vector<LearnOutcome> outcomes;
-  // For kOtherQueue and kAlreadyLearned: the queue the digest is learned under.
+  // For kCorrected and kAlreadyLearned: the queue the digest was learned
+  // under just before this document (for kCorrected, the queue it left).
   std::vector<std::string> known_queue;
   int64_t learned = 0;
+  int64_t corrected = 0;
   int64_t new_terms = 0;  // terms the vocabulary did not have
+};
+
+// Who makes a change, and when. There is no change log yet: `by` reaches
+// the store so that the version system, when it comes, records it in one
+// place; today nothing stores it.
+struct ChangeInfo {
+  std::string now;  // RFC 3339 UTC
+  std::string by;   // the person or job that asked for the change
+};
+
+// How a user names a learned document. Tried in this order: the exact
+// digest of the file as it is now, the stored source path, a digest prefix.
+// Empty fields are skipped.
+struct DocumentName {
+  std::string digest;  // SHA-256 of a file's current bytes, lowercase hex
+  std::string source;  // a source path as the ledger stores it
+  std::string prefix;  // lowercase hex, 8 to 64 digits
+};
+
+struct Resolution {
+  enum class Kind { kFound, kAmbiguous, kUnknown };
+  Kind kind = Kind::kUnknown;
+  LedgerEntry entry;                    // kFound
+  std::vector<std::string> candidates;  // kAmbiguous: some matching digests
+};
+
+// One line of a correction: the learned document `digest` belongs in
+// `queue` (created when missing).
+struct CorrectMove {
+  std::string digest;
+  std::string queue;
+};
+
+struct CorrectResult {
+  // Per move, in order: the queue the document was in just before it (equal
+  // to the move's queue when nothing changed).
+  std::vector<std::string> from;
+  int64_t moved = 0;
+  LearnResult learned;  // the batch of new documents
+};
+
+struct ForgetResult {
+  std::vector<LedgerEntry> forgotten;  // in the order asked
+  int64_t removed_terms = 0;           // terms whose count reached zero
+  // False when other connections kept reading so long that the write-ahead
+  // log could not be emptied (the old pages stay there until the next
+  // checkpoint).
+  bool checkpointed = false;
 };
 
 class Store {
@@ -103,11 +154,37 @@ class Store {
   Status ReadLedger(const std::function<void(LedgerDocument&)>& fn);
 
   // Learns a batch in one transaction. Queues are created on demand;
-  // documents already in the ledger are not counted again (see
+  // documents already in the ledger are not counted again, and one known
+  // under another queue is moved there, as Correct does (see
   // LearnOutcome); counts are summed in memory and written in key order.
   // `now` is the RFC 3339 UTC time recorded in the ledger.
   Status Learn(const LearnBatch& batch, const std::string& now,
                LearnResult* result);
+
+  // Finds the one learned document a name stands for, or says that none or
+  // several do. Prefixes use a range query, digest >= p AND digest < p+"g".
+  Status ResolveDocument(const DocumentName& name, Resolution* out);
+
+  // Applies moves in order and learns the batch, all in one transaction.
+  // A move takes the document's stored term counts out of its queue
+  // (deleting rows that reach zero) and adds them to the new queue, with
+  // both queues' documents and N(q); |V| does not change. Fails, changing
+  // nothing, when a digest is not learned or a queue name is invalid.
+  Status Correct(const std::vector<CorrectMove>& moves, const LearnBatch& batch,
+                 const ChangeInfo& change, CorrectResult* result);
+
+  // Unlearns documents exactly, in one transaction: their stored counts are
+  // subtracted from their queues (rows that reach zero deleted; terms whose
+  // total reaches zero deleted, so |V| stays the number of terms with a
+  // non-zero count), the queues' documents and N(q) decremented (a queue
+  // left empty stays, and routes nothing) and the ledger rows deleted. The
+  // connection runs with PRAGMA secure_delete = ON, so freed content is
+  // overwritten with zeros, and after the commit the write-ahead log is
+  // checkpointed and truncated (PRAGMA wal_checkpoint(TRUNCATE)).
+  // REQUIRES: digests distinct. Fails, changing nothing, when one is not
+  // learned.
+  Status Forget(const std::vector<std::string>& digests, const ChangeInfo& change,
+                ForgetResult* result);
 
   // Sets (or with nullopt clears) a queue's hand-set prior.
   // REQUIRES: 0 < prior < 1. Fails when the queue does not exist or the hand-
@@ -117,6 +194,17 @@ class Store {
  private:
   Store(std::string path, sql::DbHandle db);
   Status LoadSettings();
+  // The bodies of Learn and Correct, inside a transaction the caller holds.
+  Status LearnInTransaction(const LearnBatch& batch, const std::string& now,
+                            LearnResult* result);
+  // Moves learned documents, in order: (digest, queue id) each to its queue;
+  // (*from)[i] gets the queue document i was in. Nothing changes for one
+  // already there.
+  Status MoveInTransaction(const std::vector<std::pair<std::string, int64_t>>& moves,
+                           std::vector<std::string>* from);
+  // The id of a queue, created (validated) when missing.
+  Status QueueIdInTransaction(const std::string& name, const std::string& now, int64_t* id,
+                              bool* created);
   Status SaveSettings(const StoreSettings& settings);
 
   std::string path_;

@@ -521,12 +521,13 @@ TEST_F(StoreTest, SameDigestSameQueueIsAlreadyLearned) {
   EXPECT_EQ(entry->learned_at, kNow);  // the first learning stands
 }
 
-TEST_F(StoreTest, SameDigestOtherQueueIsRefused) {
+TEST_F(StoreTest, SameDigestOtherQueueIsACorrection) {
   std::unique_ptr<Store> store = CreateStore();
   ASSERT_NE(store, nullptr);
   LearnAll(store.get(), FirstBatch());
-  // The same bytes, labelled for another queue, one that does not exist
-  // yet, and one that does.
+  // The same bytes, labelled for a queue that does not exist yet, then for
+  // one that does: two corrections in a row. The stored counts move, not
+  // the terms given with the batch.
   const Doc& first = FirstBatch()[0];
   const std::vector<Doc> relabelled = {
       {first.digest, "new-queue", first.terms},
@@ -535,16 +536,22 @@ TEST_F(StoreTest, SameDigestOtherQueueIsRefused) {
   LearnResult result;
   ASSERT_TRUE(store->Learn(MakeBatch(relabelled), kNow, &result).ok());
   EXPECT_EQ(result.learned, 0);
+  EXPECT_EQ(result.corrected, 2);
   EXPECT_EQ(result.new_terms, 0);
   EXPECT_EQ(result.outcomes,
-            std::vector<LearnOutcome>(2, LearnOutcome::kOtherQueue));
-  EXPECT_EQ(result.known_queue, std::vector<std::string>(2, "permits"));
-  // Nothing counted, and no queue made for refused documents.
-  expected_.Check(store.get());
+            std::vector<LearnOutcome>(2, LearnOutcome::kCorrected));
+  EXPECT_EQ(result.known_queue, (std::vector<std::string>{"permits", "new-queue"}));
+  // The document's counts are now Zölle's; "new-queue", made for it and
+  // left empty within the batch, is not kept.
+  Expected moved;
+  for (const Doc& d : FirstBatch()) {
+    moved.Count(d.digest == first.digest ? Doc{d.digest, "Zölle", d.terms} : d);
+  }
+  moved.Check(store.get());
   std::optional<LedgerEntry> entry;
   ASSERT_TRUE(store->FindDocument(first.digest, &entry).ok());
   ASSERT_TRUE(entry.has_value());
-  EXPECT_EQ(entry->queue, "permits");
+  EXPECT_EQ(entry->queue, "Zölle");
 }
 
 TEST_F(StoreTest, DuplicateDigestInsideOneBatch) {
@@ -556,23 +563,25 @@ TEST_F(StoreTest, DuplicateDigestInsideOneBatch) {
       {Digest(2), "permits", {"berth"}},
       {Digest(2), "berth-bookings", {"berth"}},
       {Digest(3), "permits", {"x"}},
-      {Digest(1), "only-refused", {"permit"}},
+      {Digest(1), "moved-last", {"permit"}},
   };
   LearnResult result;
   ASSERT_TRUE(store->Learn(MakeBatch(docs), kNow, &result).ok());
   EXPECT_EQ(result.outcomes,
             (std::vector<LearnOutcome>{
                 LearnOutcome::kLearned, LearnOutcome::kAlreadyLearned,
-                LearnOutcome::kLearned, LearnOutcome::kOtherQueue,
-                LearnOutcome::kLearned, LearnOutcome::kOtherQueue}));
+                LearnOutcome::kLearned, LearnOutcome::kCorrected,
+                LearnOutcome::kLearned, LearnOutcome::kCorrected}));
   EXPECT_EQ(
       result.known_queue,
       (std::vector<std::string>{"", "permits", "", "permits", "", "permits"}));
   EXPECT_EQ(result.learned, 3);
-  expected_.Count(docs[0]);
-  expected_.Count(docs[2]);
+  EXPECT_EQ(result.corrected, 2);
+  // The last label of each digest wins, with the first document's terms.
+  expected_.Count({Digest(1), "moved-last", docs[0].terms});
+  expected_.Count(docs[3]);
   expected_.Count(docs[4]);
-  expected_.Check(store.get());  // "berth-bookings" is not created
+  expected_.Check(store.get());
 }
 
 TEST_F(StoreTest, BatchWithAnInvalidQueueNameChangesNothing) {

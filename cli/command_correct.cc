@@ -1,0 +1,307 @@
+// chute correct: moves learned documents to the queues a reviewer says they
+// belong in (and learns the new ones), from a CSV file, in one transaction.
+#include <CLI/CLI.hpp>
+#include <map>
+#include <set>
+
+#include "cli/command.h"
+#include "cli/common_options.h"
+#include "cli/exit_code.h"
+#include "cli/format/csv_writer.h"
+#include "cli/format/json_writer.h"
+#include "cli/format/table_writer.h"
+#include "cli/read/csv_records.h"
+#include "cli/read/document_name.h"
+#include "store/queue_name.h"
+#include "tokenize/tokenizer.h"
+
+namespace chute {
+
+namespace {
+
+struct CorrectOptions {
+  std::string db;
+  std::string csv;
+  std::string by;
+  bool create_queues = false;
+  OutputFormat format = OutputFormat::kTable;
+  int64_t max_bytes = kDefaultMaxBytes;
+};
+
+// What became of one line of the file.
+struct Line {
+  int64_t line = 0;
+  std::string document;  // as written in the file
+  std::string digest;
+  std::string from;
+  std::string to;
+  std::string outcome;  // corrected, unchanged, learned, refused
+  std::string reason;
+};
+
+void PrintLines(const std::vector<Line>& lines, OutputFormat format) {
+  auto text_or_null = [](JsonWriter& w, const std::string& s) {
+    s.empty() ? w.Null() : w.String(s);
+  };
+  if (format == OutputFormat::kJsonl) {
+    JsonWriter w;
+    for (const Line& l : lines) {
+      w.BeginObject().Key("document").String(l.document);
+      for (const auto& [key, value] :
+           {std::pair<const char*, const std::string*>{"digest", &l.digest},
+            {"from", &l.from},
+            {"to", &l.to}}) {
+        w.Key(key);
+        text_or_null(w, *value);
+      }
+      w.Key("outcome").String(l.outcome).Key("reason");
+      text_or_null(w, l.reason);
+      Print(w.EndObject().Take() + "\n");
+    }
+  } else {
+    Print(CsvRecordLine(
+        {"document", "digest", "from", "to", "outcome", "reason"}));
+    for (const Line& l : lines) {
+      Print(CsvRecordLine(
+          {l.document, l.digest, l.from, l.to, l.outcome, l.reason}));
+    }
+  }
+}
+
+void PrintSummary(const std::vector<Line>& lines, const std::string& by,
+                  Store* store) {
+  struct Tally {
+    int64_t into = 0, out_of = 0, learned = 0;
+  };
+  std::map<std::string, Tally> per_queue;
+  std::map<std::string, int64_t> outcomes;
+  for (const Line& l : lines) {
+    ++outcomes[l.outcome];
+    if (l.outcome == "corrected") {
+      ++per_queue[l.to].into;
+      ++per_queue[l.from].out_of;
+    } else if (l.outcome == "learned") {
+      ++per_queue[l.to].learned;
+    }
+  }
+  std::vector<QueueInfo> queues;
+  store->ListQueues(&queues);
+  TableWriter table({{"queue"},
+                     {"corrected into", TableWriter::Align::kRight},
+                     {"corrected out of", TableWriter::Align::kRight},
+                     {"learned", TableWriter::Align::kRight},
+                     {"documents in all", TableWriter::Align::kRight}});
+  for (const QueueInfo& q : queues) {
+    auto it = per_queue.find(q.name);
+    if (it == per_queue.end()) continue;
+    table.AddRow({q.name, std::to_string(it->second.into),
+                  std::to_string(it->second.out_of),
+                  std::to_string(it->second.learned),
+                  std::to_string(q.documents)});
+  }
+  if (!per_queue.empty()) Print(table.Render());
+  Print("corrected " + std::to_string(outcomes["corrected"]) +
+        " documents; learned " + std::to_string(outcomes["learned"]) +
+        " new; " + std::to_string(outcomes["unchanged"]) +
+        " already in their queue; " + std::to_string(outcomes["refused"]) +
+        " lines refused; by " + by + "\n");
+}
+
+int RunCorrect(const CorrectOptions& o) {
+  std::vector<CsvRecord> records;
+  if (Status s = ReadCsvRecords(o.csv, &records); !s.ok()) {
+    Report("correct", s.message() + "; nothing was changed");
+    return kExitFailed;
+  }
+  if (records.empty()) {
+    Report(
+        "correct",
+        o.csv + ": empty; expected a header 'document,queue' or 'path,queue'");
+    return kExitFailed;
+  }
+  int doc_col = -1, queue_col = -1;
+  const auto& header = records[0].fields;
+  for (size_t i = 0; i < header.size(); ++i) {
+    if (header[i] == "document" || header[i] == "path")
+      doc_col = static_cast<int>(i);
+    if (header[i] == "queue") queue_col = static_cast<int>(i);
+  }
+  if (doc_col < 0 || queue_col < 0) {
+    Report("correct", o.csv + ": line " + std::to_string(records[0].line) +
+                          ": the header has no " +
+                          (doc_col < 0 ? "'document' (or 'path')" : "'queue'") +
+                          " column; nothing was changed");
+    return kExitFailed;
+  }
+  std::unique_ptr<Store> store;
+  if (!OpenStoreOrReport("correct", o.db, &store)) return kExitFailed;
+  std::set<std::string> queues;
+  {
+    std::vector<QueueInfo> list;
+    if (Status s = store->ListQueues(&list); !s.ok()) {
+      Report("correct", s.message());
+      return kExitFailed;
+    }
+    for (const QueueInfo& q : list) queues.insert(q.name);
+  }
+  std::string folder;
+  if (size_t slash = o.csv.rfind('/'); slash != std::string::npos) {
+    folder = o.csv.substr(0, slash);
+  }
+
+  Tokenizer tokenizer(store->settings().tokenizer);
+  std::vector<Line> lines;
+  std::vector<CorrectMove> moves;
+  std::vector<size_t> line_of_move;
+  LearnBatch batch;
+  std::vector<size_t> line_of_batch_doc;
+  std::vector<std::string> terms;
+  for (size_t r = 1; r < records.size(); ++r) {
+    const CsvRecord& rec = records[r];
+    auto field = [&](int col) {
+      return static_cast<size_t>(col) < rec.fields.size() ? rec.fields[col]
+                                                          : std::string();
+    };
+    Line line{rec.line,         field(doc_col), "", "",
+              field(queue_col), "refused",      ""};
+    auto refuse = [&](std::string reason) {
+      line.reason = std::move(reason);
+      Report("correct",
+             o.csv + ": line " + std::to_string(rec.line) + ": " +
+                 (line.document.empty() ? "" : line.document + ": ") +
+                 line.reason);
+      lines.push_back(line);
+    };
+    if (line.document.empty()) {
+      refuse("no document");
+      continue;
+    }
+    if (line.to.empty()) {
+      refuse("no queue");
+      continue;
+    }
+    if (!queues.count(line.to)) {
+      if (!o.create_queues) {
+        refuse("queue '" + line.to +
+               "' does not exist (add --create-queues to create it)");
+        continue;
+      }
+      if (Status v = ValidateQueueName(line.to); !v.ok()) {
+        refuse(v.message());
+        continue;
+      }
+      queues.insert(line.to);
+    }
+    NamedDocument nd;
+    NameDocument(line.document, folder, ReadOptions{o.max_bytes}, &nd);
+    Resolution res;
+    if (Status s = store->ResolveDocument(nd.name, &res); !s.ok()) {
+      Report("correct", s.message() + "; nothing was changed");
+      return kExitFailed;
+    }
+    if (res.kind == Resolution::Kind::kFound) {
+      line.digest = res.entry.digest;
+      line.outcome = "corrected";  // or unchanged, once the store has said
+      line_of_move.push_back(lines.size());
+      moves.push_back({res.entry.digest, line.to});
+      lines.push_back(line);
+    } else if (res.kind == Resolution::Kind::kAmbiguous) {
+      std::string list;
+      for (size_t i = 0; i < res.candidates.size() && i < 5; ++i) {
+        list += (i ? ", " : "") + ShortDigest(res.candidates[i]);
+      }
+      refuse("matches several learned documents (" + list +
+             (res.candidates.size() > 5 ? ", ..." : "") +
+             "); give more of the digest");
+    } else if (nd.is_file && !nd.read_status.ok()) {
+      refuse(ReasonOf(nd.read_status, nd.path));
+    } else if (nd.is_file) {
+      terms.clear();
+      tokenizer.Tokenize(nd.document.text, &terms);
+      if (terms.empty()) {
+        refuse("not learned, and no terms to learn");
+        continue;
+      }
+      line.digest = nd.document.digest;
+      line.outcome = "learned";
+      line.reason = "was not learned before";
+      batch.Add(nd.document.digest, line.to, SourcePath(nd.path), terms);
+      line_of_batch_doc.push_back(lines.size());
+      lines.push_back(line);
+    } else {
+      refuse(UnknownReason(line.document, nd));
+    }
+  }
+
+  CorrectResult result;
+  if (!moves.empty() || !batch.empty()) {
+    Status s =
+        store->Correct(moves, batch, ChangeInfo{NowRfc3339(), o.by}, &result);
+    if (!s.ok()) {
+      Report("correct", s.message() + "; nothing was changed");
+      return kExitFailed;
+    }
+    for (size_t i = 0; i < moves.size(); ++i) {
+      Line& l = lines[line_of_move[i]];
+      l.from = result.from[i];
+      if (l.from == l.to) {
+        l.outcome = "unchanged";
+        l.reason = "already in queue '" + l.to + "'";
+      } else {
+        l.reason = "moved from queue '" + l.from + "'";
+      }
+    }
+    const LearnResult& learned = result.learned;
+    for (size_t i = 0; i < learned.outcomes.size(); ++i) {
+      Line& l = lines[line_of_batch_doc[i]];
+      if (learned.outcomes[i] == LearnOutcome::kAlreadyLearned) {
+        l.outcome = "unchanged";
+        l.from = learned.known_queue[i];
+        l.reason = "already in queue '" + l.to + "'";
+      } else if (learned.outcomes[i] == LearnOutcome::kCorrected) {
+        l.outcome = "corrected";
+        l.from = learned.known_queue[i];
+        l.reason = "moved from queue '" + l.from + "'";
+      }
+    }
+  }
+  if (o.format == OutputFormat::kTable) {
+    PrintSummary(lines, o.by, store.get());
+  } else {
+    PrintLines(lines, o.format);
+  }
+  int64_t refused = 0, handled = 0;
+  for (const Line& l : lines) (l.outcome == "refused" ? refused : handled) += 1;
+  return BatchExit(handled, refused);
+}
+
+}  // namespace
+
+CommandRun SetupCorrect(CLI::App* cmd) {
+  auto o = std::make_shared<CorrectOptions>();
+  AddDbOption(cmd, &o->db);
+  cmd->add_option("file", o->csv,
+                  "a CSV file with the header document,queue (or path,queue)")
+      ->required();
+  AddByOption(cmd, &o->by);
+  cmd->add_flag("--create-queues", o->create_queues,
+                "create queues the file names that do not exist yet");
+  AddFormatOption(cmd, &o->format);
+  AddMaxBytesOption(cmd, &o->max_bytes);
+  cmd->footer(
+      R"(Each line names a document and the queue it belongs in. The document is a
+path (relative paths are relative to the CSV file; the digest of the file as
+it is now, or else the path the store recorded when it learned it) or a
+digest prefix of at least 8 hex digits. A learned document's counts move
+exactly to the new queue; an unknown document whose file exists is learned.
+Bad lines are reported by line number; the rest is applied in one
+transaction.
+
+Examples:
+  chute correct fixes.csv
+  chute correct fixes.csv --by j.moreau --create-queues
+  chute correct fixes.csv --format jsonl > applied.jsonl)");
+  return [o] { return RunCorrect(*o); };
+}
+
+}  // namespace chute

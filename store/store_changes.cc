@@ -1,0 +1,334 @@
+// Changes to what was learned: naming a learned document, moving it to
+// another queue (corrections), unlearning it (forget). Each public call is
+// one transaction; a version system can later record the change in that
+// same transaction, at the one place marked in Correct and Forget.
+#include <cstdint>
+#include <string>
+#include <unordered_map>
+#include <utility>
+#include <vector>
+
+#include "store/store.h"
+#include "store/term_counts_codec.h"
+
+namespace chute {
+
+namespace {
+
+constexpr char kLedgerColumns[] =
+    "SELECT l.id, l.digest, l.queue_id, q.name, l.source, l.learned_at, "
+    "l.tokens, "
+    "l.term_counts FROM ledger l JOIN queues q ON q.id = l.queue_id ";
+
+// A ledger row with its own term counts decoded.
+struct StoredDocument {
+  int64_t ledger_id = 0;
+  int64_t queue_id = 0;
+  LedgerEntry entry;
+  std::vector<TermCount> terms;
+};
+
+// Reads the ledger row of digest; *found is false when it is not learned.
+Status ReadStored(sqlite3* db, const std::string& path,
+                  const std::string& digest, StoredDocument* out, bool* found) {
+  *found = false;
+  sql::Statement st(db, std::string(kLedgerColumns) + "WHERE l.digest = ?");
+  if (!st.ok()) return Status::IoError(path + ": " + st.error());
+  st.Bind(1, digest);
+  int rc = st.Step();
+  if (rc == SQLITE_DONE) return Status::Ok();
+  if (rc != SQLITE_ROW) return sql::ErrorStatus(db, path);
+  out->ledger_id = st.ColumnInt(0);
+  out->queue_id = st.ColumnInt(2);
+  out->entry =
+      LedgerEntry{std::string(st.ColumnText(1)), std::string(st.ColumnText(3)),
+                  std::string(st.ColumnText(4)), std::string(st.ColumnText(5)),
+                  st.ColumnInt(6)};
+  if (!DecodeTermCounts(st.ColumnBlob(7), &out->terms)) {
+    return Status::Corruption(path + ": the ledger entry of " + digest +
+                              " does not decode");
+  }
+  *found = true;
+  return Status::Ok();
+}
+
+// Adds or subtracts one document's term counts in one queue, with prepared
+// statements shared across documents. Counts never hold a zero row: a
+// subtraction that reaches zero deletes the row.
+class CountEditor {
+ public:
+  CountEditor(sqlite3* db, std::string path)
+      : db_(db),
+        path_(std::move(path)),
+        find_term_(db, "SELECT id FROM terms WHERE text = ?"),
+        add_term_(db, "INSERT INTO terms(text) VALUES(?)"),
+        upsert_(
+            db,
+            "INSERT INTO counts(term_id, queue_id, n) VALUES(?, ?, ?) "
+            "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n"),
+        lower_(db,
+               "UPDATE counts SET n = n - ? WHERE term_id = ? AND queue_id = ? "
+               "AND n > ?"),
+        remove_(
+            db,
+            "DELETE FROM counts WHERE term_id = ? AND queue_id = ? AND n = ?"),
+        drop_term_(db,
+                   "DELETE FROM terms WHERE id = ? AND NOT EXISTS "
+                   "(SELECT 1 FROM counts WHERE term_id = ?)"),
+        queue_totals_(
+            db,
+            "UPDATE queues SET documents = documents + ?, tokens = tokens + ? "
+            "WHERE id = ?") {}
+
+  Status status() const {
+    for (const sql::Statement* st : {&find_term_, &add_term_, &upsert_, &lower_,
+                                     &remove_, &drop_term_, &queue_totals_}) {
+      if (!st->ok()) return Status::IoError(path_ + ": " + st->error());
+    }
+    return Status::Ok();
+  }
+
+  // N(q, w) += n for every term, N(q) += tokens, documents(q) += 1.
+  Status Add(int64_t queue_id, const StoredDocument& doc) {
+    for (const auto& [term, n] : doc.terms) {
+      int64_t id = 0;
+      Status s = TermId(term, /*create=*/true, &id);
+      if (!s.ok()) return s;
+      s = upsert_.Bind(1, id).Bind(2, queue_id).Bind(3, n).Run();
+      if (!s.ok()) return s;
+    }
+    return queue_totals_.Bind(1, int64_t{1})
+        .Bind(2, doc.entry.tokens)
+        .Bind(3, queue_id)
+        .Run();
+  }
+
+  // The reverse of Add. With drop_terms, a term whose counts are all gone
+  // is deleted from the vocabulary (counted in *dropped). Fails on counts
+  // smaller than the document's own (a damaged store).
+  Status Subtract(int64_t queue_id, const StoredDocument& doc, bool drop_terms,
+                  int64_t* dropped) {
+    for (const auto& [term, n] : doc.terms) {
+      int64_t id = 0;
+      Status s = TermId(term, /*create=*/false, &id);
+      if (!s.ok()) return s;
+      s = lower_.Bind(1, n).Bind(2, id).Bind(3, queue_id).Bind(4, n).Run();
+      if (!s.ok()) return s;
+      if (sqlite3_changes(db_) == 0) {
+        s = remove_.Bind(1, id).Bind(2, queue_id).Bind(3, n).Run();
+        if (!s.ok()) return s;
+        if (sqlite3_changes(db_) == 0) return Damaged(doc);
+        if (drop_terms) {
+          s = drop_term_.Bind(1, id).Bind(2, id).Run();
+          if (!s.ok()) return s;
+          *dropped += sqlite3_changes(db_);
+        }
+      }
+    }
+    return queue_totals_.Bind(1, int64_t{-1})
+        .Bind(2, -doc.entry.tokens)
+        .Bind(3, queue_id)
+        .Run();
+  }
+
+ private:
+  Status TermId(const std::string& term, bool create, int64_t* id) {
+    find_term_.Bind(1, term);
+    int rc = find_term_.Step();
+    if (rc == SQLITE_ROW) *id = find_term_.ColumnInt(0);
+    find_term_.Reset();
+    if (rc == SQLITE_ROW) return Status::Ok();
+    if (rc != SQLITE_DONE) return sql::ErrorStatus(db_, path_);
+    if (!create)
+      return Status::Corruption(
+          path_ + ": a learned term is missing from the vocabulary");
+    Status s = add_term_.Bind(1, term).Run();
+    if (!s.ok()) return s;
+    *id = sqlite3_last_insert_rowid(db_);
+    return Status::Ok();
+  }
+
+  Status Damaged(const StoredDocument& doc) const {
+    return Status::Corruption(
+        path_ + ": the counts of queue '" + doc.entry.queue +
+        "' are smaller than those of its document " + doc.entry.digest);
+  }
+
+  sqlite3* db_;
+  std::string path_;
+  sql::Statement find_term_, add_term_, upsert_, lower_, remove_, drop_term_,
+      queue_totals_;
+};
+
+}  // namespace
+
+Status Store::MoveInTransaction(
+    const std::vector<std::pair<std::string, int64_t>>& moves,
+    std::vector<std::string>* from) {
+  from->clear();
+  if (moves.empty()) return Status::Ok();
+  sqlite3* db = db_.get();
+  CountEditor edit(db, path_);
+  Status s = edit.status();
+  if (!s.ok()) return s;
+  sql::Statement relabel(db, "UPDATE ledger SET queue_id = ? WHERE id = ?");
+  if (!relabel.ok()) return Status::IoError(path_ + ": " + relabel.error());
+  for (const auto& [digest, to_queue_id] : moves) {
+    StoredDocument doc;
+    bool found = false;
+    s = ReadStored(db, path_, digest, &doc, &found);
+    if (!s.ok()) return s;
+    if (!found)
+      return Status::NotFound(path_ + ": " + digest + " is not learned");
+    from->push_back(doc.entry.queue);
+    if (doc.queue_id == to_queue_id) continue;
+    int64_t dropped = 0;
+    s = edit.Subtract(doc.queue_id, doc, /*drop_terms=*/false, &dropped);
+    if (s.ok()) s = edit.Add(to_queue_id, doc);
+    if (s.ok()) s = relabel.Bind(1, to_queue_id).Bind(2, doc.ledger_id).Run();
+    if (!s.ok()) return s;
+  }
+  return Status::Ok();
+}
+
+Status Store::ResolveDocument(const DocumentName& name, Resolution* out) {
+  *out = Resolution();
+  sqlite3* db = db_.get();
+  sql::ReadTransaction read(db);
+  if (!read.status().ok()) return read.status();
+  // At most this many candidates are listed for an ambiguous name.
+  constexpr int64_t kShown = 5;
+  auto query = [&](const std::string& where,
+                   const std::vector<std::string>& values,
+                   bool* done) -> Status {
+    *done = false;
+    sql::Statement st(
+        db,
+        "SELECT l.digest, q.name, l.source, l.learned_at, l.tokens "
+        "FROM ledger l JOIN queues q ON q.id = l.queue_id WHERE " +
+            where + " ORDER BY l.digest LIMIT ?");
+    if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+    int i = 1;
+    for (const std::string& v : values) st.Bind(i++, v);
+    st.Bind(i, kShown + 1);
+    std::vector<LedgerEntry> rows;
+    int rc;
+    while ((rc = st.Step()) == SQLITE_ROW) {
+      rows.push_back(LedgerEntry{
+          std::string(st.ColumnText(0)), std::string(st.ColumnText(1)),
+          std::string(st.ColumnText(2)), std::string(st.ColumnText(3)),
+          st.ColumnInt(4)});
+    }
+    if (rc != SQLITE_DONE) return sql::ErrorStatus(db, path_);
+    if (rows.empty()) return Status::Ok();
+    *done = true;
+    if (rows.size() == 1) {
+      out->kind = Resolution::Kind::kFound;
+      out->entry = std::move(rows[0]);
+    } else {
+      out->kind = Resolution::Kind::kAmbiguous;
+      for (const LedgerEntry& e : rows) out->candidates.push_back(e.digest);
+    }
+    return Status::Ok();
+  };
+  bool done = false;
+  Status s;
+  if (!name.digest.empty()) {
+    s = query("l.digest = ?", {name.digest}, &done);
+    if (!s.ok() || done) return s;
+  }
+  if (!name.source.empty()) {
+    s = query("l.source = ?", {name.source}, &done);
+    if (!s.ok() || done) return s;
+  }
+  if (!name.prefix.empty()) {
+    // Digests are lowercase hex, and 'g' sorts after every hex digit, so
+    // [p, p + "g") holds exactly the digests that begin with p.
+    s = query("l.digest >= ? AND l.digest < ?",
+              {name.prefix, name.prefix + "g"}, &done);
+    if (!s.ok()) return s;
+  }
+  return Status::Ok();
+}
+
+Status Store::Correct(const std::vector<CorrectMove>& moves,
+                      const LearnBatch& batch, const ChangeInfo& change,
+                      CorrectResult* result) {
+  *result = CorrectResult();
+  sql::Transaction tx(db_.get());
+  if (!tx.status().ok())
+    return Status::Busy(path_ + ": " + tx.status().message());
+  std::vector<std::pair<std::string, int64_t>> targets;
+  std::unordered_map<std::string, int64_t> queue_ids;
+  for (const CorrectMove& m : moves) {
+    auto [it, inserted] = queue_ids.emplace(m.queue, 0);
+    if (inserted) {
+      bool created = false;
+      Status s =
+          QueueIdInTransaction(m.queue, change.now, &it->second, &created);
+      if (!s.ok()) return s;
+    }
+    targets.emplace_back(m.digest, it->second);
+  }
+  if (Status s = MoveInTransaction(targets, &result->from); !s.ok()) return s;
+  for (size_t i = 0; i < moves.size(); ++i)
+    result->moved += result->from[i] != moves[i].queue;
+  if (!batch.empty()) {
+    Status s = LearnInTransaction(batch, change.now, &result->learned);
+    if (!s.ok()) return s;
+  }
+  // A version system records the change (change.by, the moves) here.
+  Status s = tx.Commit();
+  if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
+  return Status::Ok();
+}
+
+Status Store::Forget(const std::vector<std::string>& digests,
+                     const ChangeInfo& change, ForgetResult* result) {
+  *result = ForgetResult();
+  (void)change;  // recorded by the version system, when it comes (store.h)
+  sqlite3* db = db_.get();
+  // Deleted rows, index entries and freed pages are overwritten with zeros
+  // (SQLite, "PRAGMA secure_delete", sqlite.org/pragma.html).
+  Status s = sql::Exec(db, "PRAGMA secure_delete = ON");
+  if (!s.ok()) return Status::IoError(path_ + ": " + s.message());
+  {
+    sql::Transaction tx(db);
+    if (!tx.status().ok())
+      return Status::Busy(path_ + ": " + tx.status().message());
+    CountEditor edit(db, path_);
+    if (s = edit.status(); !s.ok()) return s;
+    sql::Statement remove(db, "DELETE FROM ledger WHERE id = ?");
+    if (!remove.ok()) return Status::IoError(path_ + ": " + remove.error());
+    for (const std::string& digest : digests) {
+      StoredDocument doc;
+      bool found = false;
+      s = ReadStored(db, path_, digest, &doc, &found);
+      if (!s.ok()) return s;
+      if (!found)
+        return Status::NotFound(path_ + ": " + digest + " is not learned");
+      s = edit.Subtract(doc.queue_id, doc, /*drop_terms=*/true,
+                        &result->removed_terms);
+      if (!s.ok()) return s;
+      s = remove.Bind(1, doc.ledger_id).Run();
+      if (!s.ok()) return s;
+      result->forgotten.push_back(std::move(doc.entry));
+    }
+    // A version system records the change (change.by, the digests, never
+    // their content) here.
+    s = tx.Commit();
+    if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
+  }
+  // Copy every page back into the file and empty the write-ahead log, which
+  // otherwise keeps the pages as they were before (SQLite, "Write-Ahead
+  // Logging" and "PRAGMA wal_checkpoint", sqlite.org/wal.html). TRUNCATE
+  // waits for readers through the busy handler; busy = 1 means it could not
+  // finish.
+  sql::Statement checkpoint(db, "PRAGMA wal_checkpoint(TRUNCATE)");
+  if (checkpoint.ok() && checkpoint.Step() == SQLITE_ROW) {
+    result->checkpointed = checkpoint.ColumnInt(0) == 0;
+  }
+  return Status::Ok();
+}
+
+}  // namespace chute
