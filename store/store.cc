@@ -180,10 +180,14 @@ Status Store::LoadModelCounts(ModelCounts* out) {
     }
   }
   const size_t nq = out->queues.size();
+  // Terms in byte order of their text, whatever order they were learned in:
+  // the rows of a model, and so the order in which a document's terms are
+  // summed, depend only on the counts (a forgotten document leaves the model
+  // bit for bit as if it had never been learned).
   sql::Statement st(db_.get(),
                     "SELECT c.term_id, t.text, c.queue_id, c.n "
-                    "FROM counts c JOIN terms t ON t.id = c.term_id "
-                    "ORDER BY c.term_id");
+                    "FROM terms t JOIN counts c ON c.term_id = t.id "
+                    "ORDER BY t.text, c.queue_id");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
   int64_t last_term = -1;
   int rc;

@@ -142,7 +142,8 @@ class Store {
   Status ListQueues(std::vector<QueueInfo>* out);
   // |V|: the number of terms with a non-zero count.
   Status VocabularySize(int64_t* out);
-  // The counts a Model is built from, queues ordered by name, terms by id.
+  // The counts a Model is built from, queues ordered by name, terms in byte
+  // order of their text (so the model does not depend on learning order).
   Status LoadModelCounts(ModelCounts* out);
   // The ledger entry of a digest; *out is empty when it is not learned.
   Status FindDocument(const std::string& digest,

@@ -175,6 +175,34 @@ TEST_F(StoreChangesTest,
   EXPECT_FALSE(entry.has_value());
 }
 
+// The model does not depend on the order in which documents were learned:
+// a store that learned the corpus one document per batch, first to last,
+// and then forgot some, has the model, to the bit, of a store that learned
+// only the kept documents in one batch, last to first.
+TEST_F(StoreChangesTest, ForgetMatchesAStoreThatLearnedTheRestInAnotherOrder) {
+  const std::vector<Doc> docs = Corpus();
+  std::unique_ptr<Store> store;
+  ASSERT_TRUE(Store::Create(dir_.File("one-by-one.db"), StoreSettings{}, &store).ok());
+  for (const Doc& d : docs) {
+    LearnBatch batch;
+    batch.Add(d.digest, d.queue, SourceOf(d), d.terms);
+    LearnResult result;
+    ASSERT_TRUE(store->Learn(batch, kChange.now, &result).ok());
+  }
+  // Forget the first documents: they brought most terms into the store.
+  std::vector<std::string> digests;
+  std::vector<Doc> kept;
+  for (size_t i = 0; i < docs.size(); ++i) {
+    (i < 5 ? digests.push_back(docs[i].digest) : kept.push_back(docs[i]));
+  }
+  ForgetResult result;
+  ASSERT_TRUE(store->Forget(digests, kChange, &result).ok());
+  std::reverse(kept.begin(), kept.end());
+  std::unique_ptr<Store> reversed = Build("reversed.db", kept);
+  ASSERT_NE(reversed, nullptr);
+  ExpectSameModel(store.get(), reversed.get());
+}
+
 // The planted word (a term, and part of the source path) is in the store
 // file or its write-ahead log after learning, and in neither file, nor the
 // -shm file, after forgetting, while the connection is still open.
