@@ -40,9 +40,6 @@ struct Line {
 };
 
 void PrintLines(const std::vector<Line>& lines, OutputFormat format) {
-  auto text_or_null = [](JsonWriter& w, const std::string& s) {
-    s.empty() ? w.Null() : w.String(s);
-  };
   if (format == OutputFormat::kJsonl) {
     JsonWriter w;
     for (const Line& l : lines) {
@@ -52,10 +49,10 @@ void PrintLines(const std::vector<Line>& lines, OutputFormat format) {
             {"from", &l.from},
             {"to", &l.to}}) {
         w.Key(key);
-        text_or_null(w, *value);
+        w.StringOrNull(*value);
       }
       w.Key("outcome").String(l.outcome).Key("reason");
-      text_or_null(w, l.reason);
+      w.StringOrNull(l.reason);
       Print(w.EndObject().Take() + "\n");
     }
   } else {

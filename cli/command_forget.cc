@@ -41,18 +41,15 @@ std::string Candidates(const Resolution& r) {
 }
 
 void PrintLines(const std::vector<Line>& lines, OutputFormat format) {
-  auto text_or_null = [](JsonWriter& w, const std::string& s) {
-    s.empty() ? w.Null() : w.String(s);
-  };
   if (format == OutputFormat::kJsonl) {
     JsonWriter w;
     for (const Line& l : lines) {
       w.BeginObject().Key("document").String(l.document).Key("digest");
-      text_or_null(w, l.digest);
+      w.StringOrNull(l.digest);
       w.Key("queue");
-      text_or_null(w, l.queue);
+      w.StringOrNull(l.queue);
       w.Key("outcome").String(l.outcome).Key("reason");
-      text_or_null(w, l.reason);
+      w.StringOrNull(l.reason);
       Print(w.EndObject().Take() + "\n");
     }
   } else {

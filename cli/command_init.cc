@@ -47,17 +47,7 @@ CommandRun SetupInit(CLI::App* cmd) {
   StoreSettings& st = o->settings;
   cmd->add_option("--alpha", st.model.alpha,
                   "smoothing added to every count: 1 is Laplace, 0 < alpha < 1 Lidstone (default 1)")
-      ->check(CLI::Validator(
-          [](std::string& v) -> std::string {
-            double a = 0;
-            try {
-              a = std::stod(v);
-            } catch (const std::exception&) {
-              return "'" + v + "' is not a number";
-            }
-            return a > 0 && std::isfinite(a) ? "" : "must be greater than 0";
-          },
-          "", "positive"))
+      ->check(PositiveReal())
       ->type_name("ALPHA");
   AddChoiceOption<PriorMode>(cmd, "--prior", &st.model.prior,
                              {{"learned", PriorMode::kLearned}, {"uniform", PriorMode::kUniform}},

@@ -45,10 +45,8 @@ void PrintLines(const std::vector<Line>& lines, OutputFormat format) {
     JsonWriter w;
     for (const Line& l : lines) {
       w.BeginObject().Key("file").String(l.file).Key("queue").String(l.queue);
-      w.Key("digest");
-      l.digest.empty() ? w.Null() : w.String(l.digest);
-      w.Key("outcome").String(l.outcome).Key("reason");
-      l.reason.empty() ? w.Null() : w.String(l.reason);
+      w.Key("digest").StringOrNull(l.digest);
+      w.Key("outcome").String(l.outcome).Key("reason").StringOrNull(l.reason);
       Print(w.EndObject().Take() + "\n");
     }
   } else if (format == OutputFormat::kCsv) {

@@ -255,17 +255,7 @@ CommandRun SetupTerms(CLI::App* cmd) {
                   "log-odds only: the prior's weight in occurrences, spread over the terms by "
                   "their share of all terms; larger pulls rare terms' scores towards 0 "
                   "(default 500)")
-      ->check(CLI::Validator(
-          [](std::string& v) -> std::string {
-            double a = 0;
-            try {
-              a = std::stod(v);
-            } catch (const std::exception&) {
-              return "'" + v + "' is not a number";
-            }
-            return a > 0 && std::isfinite(a) ? "" : "must be greater than 0";
-          },
-          "", "positive"))
+      ->check(PositiveReal())
       ->type_name("A0");
   AddFormatOption(cmd, &o->format);
   cmd->footer(R"(Each queue is compared with all the other queues taken together. Only terms

@@ -5,6 +5,7 @@
 #include <pwd.h>
 #include <unistd.h>
 
+#include <cmath>
 #include <cstdio>
 #include <cstdlib>
 #include <ctime>
@@ -18,6 +19,20 @@ namespace chute {
 std::string DefaultDbPath() {
   const char* env = std::getenv("CHUTE_DB");
   return env != nullptr && *env != '\0' ? env : "chute.db";
+}
+
+CLI::Validator PositiveReal() {
+  return CLI::Validator(
+      [](std::string& v) -> std::string {
+        double a = 0;
+        try {
+          a = std::stod(v);
+        } catch (const std::exception&) {
+          return "'" + v + "' is not a number";
+        }
+        return a > 0 && std::isfinite(a) ? "" : "must be greater than 0";
+      },
+      "", "positive");
 }
 
 void AddDbOption(CLI::App* command, std::string* db) {

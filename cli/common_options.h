@@ -26,6 +26,10 @@ template <typename T>
 void AddChoiceOption(CLI::App* command, const std::string& name, T* out,
                      std::vector<std::pair<std::string, T>> choices, const std::string& help);
 
+// Accepts a finite number greater than 0 ("must be greater than 0"
+// otherwise); for --alpha and the like.
+CLI::Validator PositiveReal();
+
 // --db PATH; the default is $CHUTE_DB, else ./chute.db.
 void AddDbOption(CLI::App* command, std::string* db);
 // --format table|jsonl|csv (default table).

@@ -25,6 +25,8 @@ class JsonWriter {
   JsonWriter& Int(int64_t v);
   JsonWriter& Bool(bool v);
   JsonWriter& Null();
+  // null for an empty string (an absent value), else the string.
+  JsonWriter& StringOrNull(std::string_view s) { return s.empty() ? Null() : String(s); }
 
   // The text written so far; Take() also clears the writer.
   const std::string& str() const { return out_; }
