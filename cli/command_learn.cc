@@ -119,8 +119,8 @@ int RunLearn(const LearnOptions& o) {
     lines.push_back({p.path, "", "", "refused", p.reason});
   }
 
-  // Workers read and tokenize a window of documents at a time; this thread
-  // then takes their results in input order.
+  // Workers read and tokenize a window of documents while this thread takes
+  // the previous window's results, in input order.
   std::vector<std::unique_ptr<Tokenizer>> tokenizers;
   for (size_t w = 0; w < o.threads; ++w) {
     tokenizers.push_back(std::make_unique<Tokenizer>(store->settings().tokenizer));
@@ -130,23 +130,26 @@ int RunLearn(const LearnOptions& o) {
     Document doc;
     std::vector<std::string> terms;
   };
-  std::vector<Slot> window(kParallelWindow);
+  std::vector<Slot> windows[2] = {std::vector<Slot>(kParallelWindow),
+                                  std::vector<Slot>(kParallelWindow)};
   const ReadOptions read_options{o.max_bytes};
   LearnBatch batch;
   std::vector<size_t> line_of_batch_doc;
   Progress progress("learn", files.size());
-  for (size_t start = 0; start < files.size(); start += kParallelWindow) {
-    const size_t count = std::min(kParallelWindow, files.size() - start);
-    ParallelFor(count, o.threads, [&](size_t i, size_t worker) {
-      Slot& slot = window[i];
+  bool failed = false;
+  auto fill = [&](size_t start, size_t count, int buffer) {
+    ParallelFor(count, o.threads, [&, start, buffer](size_t i, size_t worker) {
+      Slot& slot = windows[buffer][i];
       slot.terms.clear();
       slot.status = ReadDocument(files[start + i].path, read_options, &slot.doc);
       if (slot.status.ok()) tokenizers[worker]->Tokenize(slot.doc.text, &slot.terms);
     });
+  };
+  auto consume = [&](size_t start, size_t count, int buffer) -> bool {
     for (size_t i = 0; i < count; ++i) {
       progress.Tick();
       const LabelledFile& f = files[start + i];
-      const Slot& slot = window[i];
+      const Slot& slot = windows[buffer][i];
       const Document& doc = slot.doc;
       const std::string where = f.context.empty() ? f.path : f.context + ": " + f.path;
       if (!slot.status.ok()) {
@@ -162,7 +165,8 @@ int RunLearn(const LearnOptions& o) {
       std::optional<LedgerEntry> known;
       if (Status k = store->FindDocument(doc.digest, &known); !k.ok()) {
         Report("learn", k.message());
-        return kExitFailed;
+        failed = true;
+        return false;
       }
       if (known && known->queue == f.queue) {
         lines.push_back({f.path, f.queue, doc.digest, "already_learned", ""});
@@ -180,7 +184,10 @@ int RunLearn(const LearnOptions& o) {
       line_of_batch_doc.push_back(lines.size());
       lines.push_back({f.path, f.queue, doc.digest, "learned", ""});
     }
-  }
+    return true;
+  };
+  PipelineWindows(files.size(), fill, consume);
+  if (failed) return kExitFailed;
 
   LearnResult result;
   if (!batch.empty()) {

@@ -42,4 +42,37 @@ void ParallelFor(size_t n, size_t workers,
   if (error) std::rethrow_exception(error);
 }
 
+void PipelineWindows(size_t n,
+                     const std::function<void(size_t start, size_t count, int buffer)>& fill,
+                     const std::function<bool(size_t start, size_t count, int buffer)>& consume) {
+  auto count_at = [&](size_t start) { return std::min(kParallelWindow, n - start); };
+  if (n == 0) return;
+  fill(0, count_at(0), 0);
+  for (size_t start = 0, k = 0; start < n; start += kParallelWindow, ++k) {
+    const size_t next = start + kParallelWindow;
+    std::exception_ptr error;
+    std::thread ahead;
+    if (next < n) {
+      ahead = std::thread([&, next, k] {
+        try {
+          fill(next, count_at(next), static_cast<int>((k + 1) % 2));
+        } catch (...) {
+          error = std::current_exception();
+        }
+      });
+    }
+    // Await the fill in flight however consume ends.
+    struct Join {
+      std::thread& t;
+      ~Join() {
+        if (t.joinable()) t.join();
+      }
+    } join{ahead};
+    const bool go_on = consume(start, count_at(start), static_cast<int>(k % 2));
+    if (ahead.joinable()) ahead.join();
+    if (error) std::rethrow_exception(error);
+    if (!go_on) return;
+  }
+}
+
 }  // namespace chute

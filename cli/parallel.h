@@ -23,6 +23,17 @@ size_t DefaultThreads();
 void ParallelFor(size_t n, size_t workers,
                  const std::function<void(size_t i, size_t worker)>& work);
 
+// Two-stage processing of n items in windows of kParallelWindow, the stages
+// overlapping: while consume(start, count, buffer) takes window k on the
+// calling thread, in order, fill(start, count, buffer) prepares window k+1
+// on a background thread (typically with ParallelFor). The two windows in
+// flight use buffers 0 and 1 alternately; fill never runs twice at once.
+// consume returns false to stop early (the fill in flight is awaited).
+// An exception thrown by fill is rethrown here.
+void PipelineWindows(size_t n,
+                     const std::function<void(size_t start, size_t count, int buffer)>& fill,
+                     const std::function<bool(size_t start, size_t count, int buffer)>& consume);
+
 }  // namespace chute
 
 #endif  // CHUTE_CLI_PARALLEL_H_
