@@ -58,21 +58,27 @@ void PrintLines(const std::vector<Line>& lines, OutputFormat format) {
 }
 
 void PrintSummary(const std::vector<Line>& lines, const LearnResult& result, Store* store) {
-  std::map<std::string, std::pair<int64_t, int64_t>> per_queue;  // learned, known
+  struct Counts {
+    int64_t learned = 0, known = 0, corrected = 0;
+  };
+  std::map<std::string, Counts> per_queue;
   for (const Line& l : lines) {
-    if (l.outcome == "learned") ++per_queue[l.queue].first;
-    if (l.outcome == "already_learned") ++per_queue[l.queue].second;
+    if (l.outcome == "learned") ++per_queue[l.queue].learned;
+    if (l.outcome == "already_learned") ++per_queue[l.queue].known;
+    if (l.outcome == "corrected") ++per_queue[l.queue].corrected;
   }
   std::vector<QueueInfo> queues;
   store->ListQueues(&queues);
   TableWriter table({{"queue"},
                      {"learned now", TableWriter::Align::kRight},
+                     {"corrected into", TableWriter::Align::kRight},
                      {"already known", TableWriter::Align::kRight},
                      {"documents in all", TableWriter::Align::kRight}});
   for (const QueueInfo& q : queues) {
     auto it = per_queue.find(q.name);
     if (it == per_queue.end()) continue;
-    table.AddRow({q.name, std::to_string(it->second.first), std::to_string(it->second.second),
+    table.AddRow({q.name, std::to_string(it->second.learned),
+                  std::to_string(it->second.corrected), std::to_string(it->second.known),
                   std::to_string(q.documents)});
   }
   int64_t known = 0, refused = 0;
