@@ -56,17 +56,9 @@ int RunRoute(const RouteOptions& o) {
   }
   std::unique_ptr<Store> store;
   if (!OpenStoreOrReport("route", o.db, &store)) return kExitFailed;
-  ModelCounts counts;
-  if (Status s = store->LoadModelCounts(&counts); !s.ok()) {
-    Report("route", s.message());
-    return kExitFailed;
-  }
-  const Model model = Model::Build(counts, store->settings().model);
-  counts = ModelCounts();  // the snapshot holds what routing needs
-  if (model.queue_count() == 0) {
-    Report("route", o.db + ": has learned no documents yet; run 'chute learn' first");
-    return kExitFailed;
-  }
+  std::optional<Model> loaded;
+  if (!LoadModelOrReport("route", store.get(), &loaded)) return kExitFailed;
+  const Model& model = *loaded;
 
   std::vector<InputFile> files;
   std::vector<WalkProblem> problems;

@@ -254,17 +254,9 @@ int RunWhy(const WhyOptions& o) {
   }
   std::unique_ptr<Store> store;
   if (!OpenStoreOrReport("why", o.db, &store)) return kExitFailed;
-  ModelCounts counts;
-  if (Status s = store->LoadModelCounts(&counts); !s.ok()) {
-    Report("why", s.message());
-    return kExitFailed;
-  }
-  const Model model = Model::Build(counts, store->settings().model);
-  counts = ModelCounts();
-  if (model.queue_count() == 0) {
-    Report("why", o.db + ": has learned no documents yet; run 'chute learn' first");
-    return kExitFailed;
-  }
+  std::optional<Model> loaded;
+  if (!LoadModelOrReport("why", store.get(), &loaded)) return kExitFailed;
+  const Model& model = *loaded;
 
   std::vector<InputFile> files;
   std::vector<WalkProblem> problems;

@@ -73,6 +73,20 @@ bool OpenStoreOrReport(std::string_view command, const std::string& db,
   return s.ok();
 }
 
+bool LoadModelOrReport(std::string_view command, Store* store, std::optional<Model>* model) {
+  ModelCounts counts;
+  if (Status s = store->LoadModelCounts(&counts); !s.ok()) {
+    Report(command, s.message());
+    return false;
+  }
+  *model = Model::Build(counts, store->settings().model);
+  if ((*model)->queue_count() == 0) {
+    Report(command, store->path() + ": has learned no documents yet; run 'chute learn' first");
+    return false;
+  }
+  return true;
+}
+
 void Report(std::string_view command, std::string_view message) {
   std::string line = "chute ";
   line += command;

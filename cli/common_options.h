@@ -5,6 +5,7 @@
 
 #include <cstdint>
 #include <memory>
+#include <optional>
 #include <string>
 #include <string_view>
 #include <utility>
@@ -12,6 +13,7 @@
 
 #include <CLI/CLI.hpp>
 
+#include "classify/model.h"
 #include "store/status.h"
 #include "store/store.h"
 
@@ -55,6 +57,10 @@ std::string DefaultDbPath();
 // false.
 bool OpenStoreOrReport(std::string_view command, const std::string& db,
                        std::unique_ptr<Store>* store);
+
+// The store's current model, built once for the command; reports why not
+// (the store cannot be read, or has learned no documents) and returns false.
+bool LoadModelOrReport(std::string_view command, Store* store, std::optional<Model>* model);
 
 // "chute <command>: <message>" on stderr, one line.
 void Report(std::string_view command, std::string_view message);
