@@ -8,6 +8,7 @@
 #include <cerrno>
 #include <cstring>
 #include <map>
+#include <optional>
 #include <numeric>
 #include <set>
 
@@ -39,8 +40,6 @@ namespace {
 constexpr char kCommand[] = "evaluate";
 // Documents are named by this many hex digits of their digest in reports.
 constexpr size_t kDigestPrefix = 12;
-// How often the ledger is read again when it changed while being read.
-constexpr int kReadAttempts = 3;
 
 struct EvaluateOptions {
   std::string db;
@@ -91,24 +90,23 @@ void FillModelSummary(const Store& store, const ModelCounts& counts, EvaluationR
   for (const ReportQueue& q : r->queues) r->store_documents += q.documents;
 }
 
-// Reads the whole counts and the ledger, each document by rows of the
-// counts. Returns false (with *inconsistent set) when they do not agree,
-// which happens when a learn ran between the two reads.
+// Reads the whole counts and the ledger from one snapshot, each document by
+// rows of the counts. Returns false (with *inconsistent set) when they do not
+// agree, which only a damaged store can do.
 bool ReadCounted(Store* store, ModelCounts* whole, std::vector<CountedDocument>* docs,
                  std::vector<LedgerItem>* items, bool* inconsistent) {
   *inconsistent = false;
   docs->clear();
   items->clear();
-  if (Status s = store->LoadModelCounts(whole); !s.ok()) {
-    Report(kCommand, s.message());
-    return false;
-  }
   std::map<std::string, uint32_t, std::less<>> column;
-  for (size_t q = 0; q < whole->queues.size(); ++q) {
-    column.emplace(whole->queues[q].name, static_cast<uint32_t>(q));
-  }
-  const CountsRowIndex index(*whole);
-  Status s = store->ReadLedger([&](LedgerDocument& d) {
+  std::optional<CountsRowIndex> index;
+  Status s = store->ReadCountsAndLedger(whole, [&](LedgerDocument& d) {
+    if (!index) {  // the counts are read before the first document
+      for (size_t q = 0; q < whole->queues.size(); ++q) {
+        column.emplace(whole->queues[q].name, static_cast<uint32_t>(q));
+      }
+      index.emplace(*whole);
+    }
     if (*inconsistent) return;
     auto col = column.find(d.queue);
     if (col == column.end()) {
@@ -119,7 +117,7 @@ bool ReadCounted(Store* store, ModelCounts* whole, std::vector<CountedDocument>*
     c.queue = col->second;
     c.rows.reserve(d.terms.size());
     for (const auto& [term, n] : d.terms) {
-      const int64_t row = index.Find(term);
+      const int64_t row = index->Find(term);
       if (row < 0) {
         *inconsistent = true;
         return;
@@ -222,15 +220,11 @@ int CrossValidateStore(const EvaluateOptions& o, Store* store, EvaluationReport*
   ModelCounts whole;
   std::vector<CountedDocument> docs;
   std::vector<LedgerItem> items;
-  bool consistent = false;
-  for (int attempt = 0; attempt < kReadAttempts && !consistent; ++attempt) {
-    bool inconsistent = false;
-    consistent = ReadCounted(store, &whole, &docs, &items, &inconsistent);
-    if (!consistent && !inconsistent) return kExitFailed;
-  }
-  if (!consistent) {
-    Report(kCommand, o.db + ": the ledger and the counts disagree (was the store changing?); "
-                            "run evaluate again");
+  bool inconsistent = false;
+  if (!ReadCounted(store, &whole, &docs, &items, &inconsistent)) {
+    if (inconsistent) {
+      Report(kCommand, o.db + ": the ledger and the counts disagree; run 'chute check'");
+    }
     return kExitFailed;
   }
   if (docs.empty()) {

@@ -85,12 +85,17 @@ class Transaction {
 };
 
 // A read transaction (BEGIN ... COMMIT): every statement inside sees one
-// consistent snapshot of the store, even while a writer commits.
+// consistent snapshot of the store, even while a writer commits. Inside a
+// transaction already open on the connection it does nothing, so readers
+// compose: the outer one decides the snapshot.
 class ReadTransaction {
  public:
-  explicit ReadTransaction(sqlite3* db) : db_(db), status_(Exec(db, "BEGIN")) {}
+  explicit ReadTransaction(sqlite3* db)
+      : db_(db),
+        owner_(sqlite3_get_autocommit(db) != 0),
+        status_(owner_ ? Exec(db, "BEGIN") : Status::Ok()) {}
   ~ReadTransaction() {
-    if (status_.ok()) sqlite3_exec(db_, "COMMIT", nullptr, nullptr, nullptr);
+    if (owner_ && status_.ok()) sqlite3_exec(db_, "COMMIT", nullptr, nullptr, nullptr);
   }
   ReadTransaction(const ReadTransaction&) = delete;
   ReadTransaction& operator=(const ReadTransaction&) = delete;
@@ -99,6 +104,7 @@ class ReadTransaction {
 
  private:
   sqlite3* db_;
+  bool owner_;  // began the transaction, so ends it
   Status status_;
 };
 

@@ -257,6 +257,14 @@ Status Store::ReadLedger(const std::function<void(LedgerDocument&)>& fn) {
   return Status::Ok();
 }
 
+Status Store::ReadCountsAndLedger(ModelCounts* counts,
+                                  const std::function<void(LedgerDocument&)>& fn) {
+  sql::ReadTransaction read(db_.get());
+  if (!read.status().ok()) return read.status();
+  Status s = LoadModelCounts(counts);
+  return s.ok() ? ReadLedger(fn) : s;
+}
+
 Status Store::Learn(const LearnBatch& batch, const std::string& now,
                     LearnResult* result) {
   sql::Transaction tx(db_.get());

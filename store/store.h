@@ -153,6 +153,10 @@ class Store {
   // inside one read transaction (a consistent view). Fails on a ledger blob
   // that does not decode.
   Status ReadLedger(const std::function<void(LedgerDocument&)>& fn);
+  // LoadModelCounts and ReadLedger from one snapshot: the counts are exactly
+  // the sum of the documents given to fn, even while others learn.
+  Status ReadCountsAndLedger(ModelCounts* counts,
+                             const std::function<void(LedgerDocument&)>& fn);
 
   // Learns a batch in one transaction. Queues are created on demand;
   // documents already in the ledger are not counted again, and one known

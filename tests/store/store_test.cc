@@ -484,6 +484,35 @@ TEST_F(StoreTest, ReadLedgerGivesEveryDocumentInLearningOrder) {
   }
 }
 
+// One snapshot: the counts handed back are the sum of the documents.
+TEST_F(StoreTest, ReadCountsAndLedgerReadsOneConsistentSnapshot) {
+  std::unique_ptr<Store> store = CreateStore();
+  ASSERT_NE(store, nullptr);
+  LearnAll(store.get(), FirstBatch());
+  ModelCounts counts;
+  std::map<std::pair<std::string, std::string>, int64_t> summed;
+  size_t documents = 0;
+  Status s = store->ReadCountsAndLedger(&counts, [&](LedgerDocument& d) {
+    ++documents;
+    for (const auto& [term, n] : d.terms) summed[{d.queue, term}] += n;
+  });
+  ASSERT_TRUE(s.ok()) << s.message();
+  EXPECT_EQ(documents, FirstBatch().size());
+  std::map<std::pair<std::string, std::string>, int64_t> from_counts;
+  const size_t nq = counts.queues.size();
+  for (size_t row = 0; row < counts.terms.size(); ++row) {
+    for (size_t q = 0; q < nq; ++q) {
+      if (int64_t n = counts.counts[row * nq + q]; n != 0) {
+        from_counts[{counts.queues[q].name, counts.terms[row]}] = n;
+      }
+    }
+  }
+  EXPECT_EQ(from_counts, summed);
+  // The snapshot is closed again: the store takes a write afterwards.
+  LearnResult result;
+  EXPECT_TRUE(store->Learn(MakeBatch({{Digest(99), "permits", {"pilot"}}}), kNow, &result).ok());
+}
+
 TEST_F(StoreTest, ReadLedgerRefusesABlobThatDoesNotDecode) {
   {
     std::unique_ptr<Store> store = CreateStore();
