@@ -47,6 +47,40 @@ CREATE TABLE ledger (
 );
 CREATE INDEX ledger_by_queue ON ledger(queue_id);
 )sql",
+    // 2: versions (a change log with snapshots), kept text, retired queues.
+    R"sql(
+ALTER TABLE ledger ADD COLUMN in_model INTEGER NOT NULL DEFAULT 1
+  CHECK (in_model IN (0, 1));
+ALTER TABLE ledger ADD COLUMN text BLOB;
+CREATE INDEX ledger_by_source ON ledger(source);
+ALTER TABLE queues ADD COLUMN retired TEXT;
+INSERT OR IGNORE INTO settings(key, value) VALUES('keep_text', 'on');
+CREATE TABLE versions (
+  id          INTEGER PRIMARY KEY,
+  time        TEXT NOT NULL,
+  command     TEXT NOT NULL,
+  by          TEXT NOT NULL,
+  added       INTEGER NOT NULL CHECK (added >= 0),
+  moved       INTEGER NOT NULL CHECK (moved >= 0),
+  removed     INTEGER NOT NULL CHECK (removed >= 0),
+  fingerprint TEXT NOT NULL,
+  header      TEXT NOT NULL,
+  details     TEXT
+);
+CREATE TABLE changes (
+  version    INTEGER NOT NULL REFERENCES versions(id) ON DELETE CASCADE,
+  document   INTEGER NOT NULL,
+  from_queue INTEGER,
+  to_queue   INTEGER,
+  CHECK (from_queue IS NOT NULL OR to_queue IS NOT NULL)
+);
+CREATE INDEX changes_by_version ON changes(version);
+CREATE INDEX changes_by_document ON changes(document);
+CREATE TABLE snapshots (
+  version INTEGER PRIMARY KEY REFERENCES versions(id) ON DELETE CASCADE,
+  members BLOB NOT NULL
+);
+)sql",
 };
 
 int UserVersion(sqlite3* db) {

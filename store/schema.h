@@ -20,6 +20,26 @@
 //             its own term counts encoded in one blob (term_counts_codec.h),
 //             so that it can be unlearned exactly.
 //
+// Schema version 2 adds:
+//
+//   ledger.in_model  1 when the document is counted in the current model;
+//             0 when it is kept only for history (a rollback took it out,
+//             or its queue was retired). Counts are the sum of the ledger
+//             rows with in_model = 1.
+//   ledger.text      the document's text, zstd-compressed, when the store
+//             keeps text (setting keep_text); NULL otherwise or once purged.
+//   queues.retired   when the queue was retired (RFC 3339), or NULL.
+//   versions  One row per committed change of the model: id, time, command,
+//             by, documents added / moved / removed, the model fingerprint
+//             (fingerprint.h) and a header: the settings and the queues
+//             (id, name, prior, retired) as they were after the change.
+//   changes   The append-only change log: per version, each document
+//             (ledger id) that entered the model (from_queue NULL), left it
+//             (to_queue NULL) or moved between queues.
+//   snapshots Every so many versions, the model's membership (ledger id,
+//             queue id) encoded in one blob; a version's membership is the
+//             nearest snapshot at or before it plus the changes after it.
+//
 // To change the schema: append a migration to kMigrations in schema.cc
 // (never edit a released one), which bumps SchemaVersion().
 // tests/store/schema_test.cc then builds a store of every older version,
