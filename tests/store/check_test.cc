@@ -46,7 +46,7 @@ class CheckTest : public ::testing::Test {
     batch.Add(Digest(3), "freight", "c.txt",
               {"lorry", "permit", "lorry", "crane"});
     LearnResult result;
-    ASSERT_TRUE(store->Learn(batch, "2026-05-01T09:30:00Z", &result).ok());
+    ASSERT_TRUE(store->Learn(batch, {"2026-05-01T09:30:00Z", "tester"}, &result).ok());
     ASSERT_EQ(result.learned, 3);
   }
 
