@@ -230,6 +230,14 @@ class Store {
   // priors, retirements and the model settings become v's. Same limits as
   // ModelAtVersion. One transaction.
   Status Rollback(int64_t v, const ChangeInfo& change, RollbackResult* result);
+  // Makes the model the one target describes (its members, queues and
+  // model settings; target.info is not used) as a new version named
+  // `command` with `details` (JSON or empty), in one transaction: the
+  // general form of Rollback, for promote. REQUIRES the store's tokenizing
+  // settings (InvalidArgument otherwise). Members must be ledger ids.
+  Status ApplyState(const VersionState& target, const std::string& command,
+                    const ChangeInfo& change, const std::string& details,
+                    RollbackResult* result);
   // Drops the history before version `before`: a snapshot is written at
   // `before`, older versions, snapshots and change log rows are deleted.
   // *dropped gets the number of versions deleted.
@@ -305,6 +313,9 @@ class Store {
                                     const VersionDelta& delta, VersionInfo* made = nullptr);
   // The members of the current model, (ledger id, queue id) by ledger id.
   Status CurrentMembersInTransaction(std::vector<std::pair<int64_t, int64_t>>* out);
+  Status ApplyStateInTransaction(const VersionState& target, const std::string& command,
+                                 const ChangeInfo& change, const std::string& details,
+                                 RollbackResult* result);
   // Takes forgotten ledger ids out of every snapshot that holds them.
   Status EraseFromSnapshotsInTransaction(const std::vector<int64_t>& ids);
   // Writes a snapshot of the current membership for version v.

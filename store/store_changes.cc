@@ -378,8 +378,7 @@ namespace chute {
 Status Store::Rollback(int64_t v, const ChangeInfo& change,
                        RollbackResult* result) {
   *result = RollbackResult();
-  sqlite3* db = db_.get();
-  sql::Transaction tx(db);
+  sql::Transaction tx(db_.get());
   if (!tx.status().ok())
     return Status::Busy(path_ + ": " + tx.status().message());
   VersionState target;
@@ -392,6 +391,41 @@ Status Store::Rollback(int64_t v, const ChangeInfo& change,
         "counted with now (a rebuild changed them); its documents must be "
         "recounted from their kept text");
   }
+  s = ApplyStateInTransaction(target, "rollback", change,
+                              "{\"rollback_to\":" + std::to_string(v) + "}",
+                              result);
+  if (!s.ok()) return s;
+  s = tx.Commit();
+  if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
+  return Status::Ok();
+}
+
+Status Store::ApplyState(const VersionState& target, const std::string& command,
+                         const ChangeInfo& change, const std::string& details,
+                         RollbackResult* result) {
+  *result = RollbackResult();
+  sql::Transaction tx(db_.get());
+  if (!tx.status().ok())
+    return Status::Busy(path_ + ": " + tx.status().message());
+  if (!SameTokenizing(target.settings, settings_)) {
+    return Status::InvalidArgument(
+        path_ + ": the model to apply tokenizes with other settings than the "
+        "store's documents are counted with");
+  }
+  Status s = ApplyStateInTransaction(target, command, change, details, result);
+  if (!s.ok()) return s;
+  s = tx.Commit();
+  if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
+  return Status::Ok();
+}
+
+Status Store::ApplyStateInTransaction(const VersionState& target,
+                                      const std::string& command,
+                                      const ChangeInfo& change,
+                                      const std::string& details,
+                                      RollbackResult* result) {
+  sqlite3* db = db_.get();
+  Status s;
 
   // Queues: names, hand-set priors and retirements as they were. Names
   // change in two steps, through names no queue can have ('\x01' is refused
@@ -416,6 +450,7 @@ Status Store::Rollback(int64_t v, const ChangeInfo& change,
         set.BindNull(2);
       }
       std::string now = change.now.empty() ? target.info.time : change.now;
+      if (now.empty()) now = "unknown";
       s = set.Bind(3, int64_t{q.retired}).Bind(4, now).Bind(5, q.id).Run();
       if (!s.ok()) return s;
     }
@@ -482,14 +517,12 @@ Status Store::Rollback(int64_t v, const ChangeInfo& change,
   settings.model = target.settings.model;
   if (s = SaveSettingsInTransaction(settings); !s.ok()) return s;
 
-  delta.details = "{\"rollback_to\":" + std::to_string(v) + "}";
-  s = RecordVersionInTransaction("rollback", change, delta, &result->made);
+  delta.details = details;
+  s = RecordVersionInTransaction(command, change, delta, &result->made);
   if (!s.ok()) return s;
   result->added = delta.added;
   result->moved = delta.moved;
   result->removed = delta.removed;
-  s = tx.Commit();
-  if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();
 }
 
