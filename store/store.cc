@@ -137,7 +137,8 @@ Status Store::ListQueues(std::vector<QueueInfo>* out) {
   out->clear();
   sql::Statement st(db_.get(),
                     "SELECT q.name, q.documents, q.tokens, q.set_prior, "
-                    "(SELECT COUNT(*) FROM counts c WHERE c.queue_id = q.id) "
+                    "(SELECT COUNT(*) FROM counts c WHERE c.queue_id = q.id), "
+                    "q.retired IS NOT NULL "
                     "FROM queues q ORDER BY q.name");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
   int rc;
@@ -148,6 +149,7 @@ Status Store::ListQueues(std::vector<QueueInfo>* out) {
     q.tokens = st.ColumnInt(2);
     if (!st.ColumnIsNull(3)) q.set_prior = st.ColumnDouble(3);
     q.distinct_terms = st.ColumnInt(4);
+    q.retired = st.ColumnInt(5) != 0;
     out->push_back(std::move(q));
   }
   if (rc != SQLITE_DONE) return sql::ErrorStatus(db_.get(), path_);
@@ -292,12 +294,15 @@ Status Store::Learn(const LearnBatch& batch, const ChangeInfo& change,
 Status Store::QueueIdInTransaction(const std::string& name, const std::string& now,
                                    int64_t* id, bool* created) {
   *created = false;
-  sql::Statement find(db_.get(), "SELECT id FROM queues WHERE name = ?");
+  sql::Statement find(db_.get(), "SELECT id, retired IS NOT NULL FROM queues WHERE name = ?");
   if (!find.ok()) return Status::IoError(path_ + ": " + find.error());
   find.Bind(1, name);
   if (find.Step() == SQLITE_ROW) {
     *id = find.ColumnInt(0);
-    return Status::Ok();
+    if (find.ColumnInt(1) == 0) return Status::Ok();
+    // Documents learned under a retired queue's name bring it back.
+    sql::Statement revive(db_.get(), "UPDATE queues SET retired = NULL WHERE id = ?");
+    return revive.Bind(1, *id).Run();
   }
   Status v = ValidateQueueName(name);
   if (!v.ok()) return v;
@@ -529,7 +534,7 @@ Status Store::SetPrior(const std::string& queue, std::optional<double> prior,
                        const ChangeInfo& change) {
   sql::Transaction tx(db_.get());
   if (!tx.status().ok()) return tx.status();
-  sql::Statement find(db_.get(), "SELECT id FROM queues WHERE name = ?");
+  sql::Statement find(db_.get(), "SELECT id FROM queues WHERE name = ? AND retired IS NULL");
   find.Bind(1, queue);
   if (find.Step() != SQLITE_ROW) {
     return Status::NotFound("queue '" + queue + "' does not exist in " + path_);
