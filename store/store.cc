@@ -103,6 +103,7 @@ Status Store::SaveSettings(const StoreSettings& settings) {
       {"numbers", t.numbers == NumberMode::kFold ? "fold" : "keep"},
       {"min_length", std::to_string(t.min_length)},
       {"max_length", std::to_string(t.max_length)},
+      {"keep_text", settings.keep_text ? "on" : "off"},
   };
   sql::Transaction tx(db_.get());
   if (!tx.status().ok()) return tx.status();
@@ -456,7 +457,7 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
   {
     sql::Statement add(db,
                        "INSERT INTO ledger(digest, queue_id, source, learned_at, tokens, "
-                       "term_counts) VALUES(?, ?, ?, ?, ?, ?)");
+                       "term_counts, text) VALUES(?, ?, ?, ?, ?, ?, ?)");
     if (!add.ok()) return Status::IoError(path_ + ": " + add.error());
     std::vector<std::pair<uint32_t, int64_t>> ranked;
     std::vector<std::pair<std::string_view, int64_t>> own;
@@ -468,13 +469,20 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
       std::sort(ranked.begin(), ranked.end());
       own.clear();
       for (const auto& [r, count] : ranked) own.emplace_back(batch.term(by_text[r]), count);
-      Status s = add.Bind(1, d.digest)
-                     .Bind(2, queue_ids[queue_index[d.queue]])
-                     .Bind(3, d.source)
-                     .Bind(4, now)
-                     .Bind(5, d.tokens)
-                     .BindBlob(6, EncodeTermCounts(own))
-                     .Run();
+      add.Bind(1, d.digest)
+          .Bind(2, queue_ids[queue_index[d.queue]])
+          .Bind(3, d.source)
+          .Bind(4, now)
+          .Bind(5, d.tokens)
+          .BindBlob(6, EncodeTermCounts(own));  // copied (SQLITE_TRANSIENT)
+      // The text packed on the tokenizing thread; NULL when not kept (a
+      // store set to keep no text keeps none, whatever the caller packed).
+      if (settings_.keep_text && !d.packed_text.empty()) {
+        add.BindBlob(7, d.packed_text);
+      } else {
+        add.BindNull(7);
+      }
+      Status s = add.Run();
       if (!s.ok()) return fail(s);
     }
   }
