@@ -26,6 +26,8 @@ constexpr chute::Command kCommands[] = {
      chute::SetupCorrect},
     {"forget", "unlearn documents exactly and erase what the store kept of them",
      chute::SetupForget},
+    {"purge", "erase the kept text and source paths of documents learned before a time",
+     chute::SetupPurge},
     {"queues", "list the queues, their documents, terms and priors; set priors",
      chute::SetupQueues},
     {"terms-of", "print the terms chute counts for a document", chute::SetupTermsOf},
