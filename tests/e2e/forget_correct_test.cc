@@ -20,11 +20,6 @@ namespace {
 
 using nlohmann::json;
 
-std::string ReadBytes(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  return std::string(std::istreambuf_iterator<char>(in), {});
-}
-
 class ForgetCorrectTest : public ::testing::Test {
  protected:
   RunResult Chute(std::vector<std::string> args,

@@ -27,11 +27,7 @@ constexpr char kMay[] = "2026-05-01T09:30:00Z";
 constexpr char kJune[] = "2026-06-01T09:30:00Z";
 const ChangeInfo kChange{"2026-07-01T08:00:00Z", "reviewer-1"};
 
-std::string Digest(unsigned n) {
-  char buf[65];
-  std::snprintf(buf, sizeof buf, "%064x", n);
-  return buf;
-}
+std::string Digest(unsigned n) { return testing_files::NumberedDigest(n); }
 
 struct Doc {
   std::string digest;
