@@ -16,6 +16,7 @@ namespace {
 struct InitOptions {
   std::string db;
   StoreSettings settings;
+  std::string by;
 };
 
 int RunInit(const InitOptions& o) {
@@ -24,7 +25,7 @@ int RunInit(const InitOptions& o) {
     return kExitUsage;
   }
   std::unique_ptr<Store> store;
-  Status s = Store::Create(o.db, o.settings, &store);
+  Status s = Store::Create(o.db, o.settings, &store, ChangeInfo{NowRfc3339(), o.by});
   if (!s.ok()) {
     Report("init", s.message());
     return kExitFailed;
@@ -45,6 +46,7 @@ int RunInit(const InitOptions& o) {
 CommandRun SetupInit(CLI::App* cmd) {
   auto o = std::make_shared<InitOptions>();
   AddDbOption(cmd, &o->db);
+  AddByOption(cmd, &o->by);
   StoreSettings& st = o->settings;
   cmd->add_option("--alpha", st.model.alpha,
                   "smoothing added to every count: 1 is Laplace, 0 < alpha < 1 Lidstone (default 1)")

@@ -30,6 +30,7 @@ struct LearnOptions {
   OutputFormat format = OutputFormat::kTable;
   int64_t max_bytes = kDefaultMaxBytes;
   size_t threads = 1;
+  std::string by;
 };
 
 // What became of one document, for the output.
@@ -212,7 +213,7 @@ int RunLearn(const LearnOptions& o) {
 
   LearnResult result;
   if (!batch.empty()) {
-    s = store->Learn(batch, NowRfc3339(), &result);
+    s = store->Learn(batch, ChangeInfo{NowRfc3339(), o.by}, &result);
     if (!s.ok()) {
       Report("learn", s.message() + "; nothing was learned");
       return kExitFailed;
@@ -258,6 +259,7 @@ CommandRun SetupLearn(CLI::App* cmd) {
   AddFormatOption(cmd, &o->format);
   AddMaxBytesOption(cmd, &o->max_bytes);
   AddThreadsOption(cmd, &o->threads);
+  AddByOption(cmd, &o->by);
   cmd->footer(R"(Everything is learned in one transaction: all of it, or nothing.
 A document already learned under the same queue changes nothing; one learned
 under another queue is a correction: its counts move to the new queue.

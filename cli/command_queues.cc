@@ -23,6 +23,7 @@ struct QueuesOptions {
   std::vector<std::string> set_prior;  // queue, value
   std::string clear_prior;
   bool settings = false;
+  std::string by;
 };
 
 std::vector<std::pair<std::string, std::string>> SettingsRows(const StoreSettings& s,
@@ -82,13 +83,13 @@ int RunQueues(const QueuesOptions& o) {
       Report("queues", "--set-prior " + queue + ": a prior must lie strictly between 0 and 1");
       return kExitUsage;
     }
-    if (Status s = store->SetPrior(queue, p); !s.ok()) {
+    if (Status s = store->SetPrior(queue, p, ChangeInfo{NowRfc3339(), o.by}); !s.ok()) {
       Report("queues", s.message());
       return kExitFailed;
     }
   }
   if (!o.clear_prior.empty()) {
-    if (Status s = store->SetPrior(o.clear_prior, std::nullopt); !s.ok()) {
+    if (Status s = store->SetPrior(o.clear_prior, std::nullopt, ChangeInfo{NowRfc3339(), o.by}); !s.ok()) {
       Report("queues", s.message());
       return kExitFailed;
     }
@@ -176,6 +177,7 @@ CommandRun SetupQueues(CLI::App* cmd) {
       ->type_name("QUEUE P");
   cmd->add_option("--clear-prior", o->clear_prior, "QUEUE: the queue's prior is learned or uniform again");
   cmd->add_flag("--settings", o->settings, "print the store's settings instead of the queues");
+  AddByOption(cmd, &o->by);
   cmd->footer(R"(Examples:
   chute queues
   chute queues --format jsonl

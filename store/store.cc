@@ -46,7 +46,7 @@ Store::Store(std::string path, sql::DbHandle db)
     : path_(std::move(path)), db_(std::move(db)) {}
 
 Status Store::Create(const std::string& path, const StoreSettings& settings,
-                     std::unique_ptr<Store>* out) {
+                     std::unique_ptr<Store>* out, const ChangeInfo& change) {
   // Create the file ourselves so that it is 0600 from its first instant;
   // SQLite gives its -wal and -shm files the same mode.
   int fd = ::open(path.c_str(), O_CREAT | O_EXCL | O_WRONLY | O_CLOEXEC, 0600);
@@ -71,9 +71,14 @@ Status Store::Create(const std::string& path, const StoreSettings& settings,
   if (s.ok()) s = Migrate(db.get(), SchemaVersion());
   if (!s.ok()) return fail(Status::IoError(path + ": " + s.message()));
   std::unique_ptr<Store> store(new Store(path, std::move(db)));
-  s = store->SaveSettings(settings);
+  {
+    sql::Transaction tx(store->db_.get());
+    s = tx.status();
+    if (s.ok()) s = store->SaveSettingsInTransaction(settings);
+    if (s.ok()) s = store->RecordVersionInTransaction("init", change, VersionDelta());
+    if (s.ok()) s = tx.Commit();
+  }
   if (!s.ok()) return fail(Status::IoError(path + ": " + s.message()));
-  store->settings_ = settings;
   *out = std::move(store);
   return Status::Ok();
 }
@@ -88,25 +93,22 @@ Status Store::Open(const std::string& path, std::unique_ptr<Store>* out) {
   if (!s.ok()) return Status::IoError(path + ": " + s.message());
   std::unique_ptr<Store> store(new Store(path, std::move(db)));
   s = store->LoadSettings();
+  if (s.ok()) s = store->EnsureFirstVersion();
   if (!s.ok()) return s;
   *out = std::move(store);
   return Status::Ok();
 }
 
 Status Store::SaveSettings(const StoreSettings& settings) {
-  const TokenizerOptions& t = settings.tokenizer;
-  const ModelOptions& m = settings.model;
-  const std::pair<const char*, std::string> rows[] = {
-      {"alpha", FormatDouble(m.alpha)},
-      {"prior", m.prior == PriorMode::kUniform ? "uniform" : "learned"},
-      {"bigrams", t.bigrams ? "on" : "off"},
-      {"numbers", t.numbers == NumberMode::kFold ? "fold" : "keep"},
-      {"min_length", std::to_string(t.min_length)},
-      {"max_length", std::to_string(t.max_length)},
-      {"keep_text", settings.keep_text ? "on" : "off"},
-  };
   sql::Transaction tx(db_.get());
   if (!tx.status().ok()) return tx.status();
+  Status s = SaveSettingsInTransaction(settings);
+  if (!s.ok()) return s;
+  return tx.Commit();
+}
+
+Status Store::SaveSettingsInTransaction(const StoreSettings& settings) {
+  const auto rows = EncodeSettings(settings);
   sql::Statement put(db_.get(),
                      "INSERT INTO settings(key, value) VALUES(?, ?) "
                      "ON CONFLICT(key) DO UPDATE SET value = excluded.value");
@@ -115,7 +117,8 @@ Status Store::SaveSettings(const StoreSettings& settings) {
     Status s = put.Bind(1, std::string_view(key)).Bind(2, value).Run();
     if (!s.ok()) return s;
   }
-  return tx.Commit();
+  settings_ = settings;
+  return Status::Ok();
 }
 
 Status Store::LoadSettings() {
@@ -158,7 +161,7 @@ Status Store::VocabularySize(int64_t* out) {
   return Status::Ok();
 }
 
-Status Store::LoadModelCounts(ModelCounts* out) {
+Status Store::LoadModelCounts(ModelCounts* out, VersionInfo* version) {
   *out = ModelCounts();
   // Read in one transaction so that queues and counts agree.
   sql::ReadTransaction read(db_.get());
@@ -168,7 +171,7 @@ Status Store::LoadModelCounts(ModelCounts* out) {
   {
     sql::Statement st(db_.get(),
                       "SELECT id, name, documents, tokens, set_prior FROM queues "
-                      "ORDER BY name");
+                      "WHERE retired IS NULL ORDER BY name");
     if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
     while (st.Step() == SQLITE_ROW) {
       QueueCounts q;
@@ -206,7 +209,7 @@ Status Store::LoadModelCounts(ModelCounts* out) {
     out->counts[(out->terms.size() - 1) * nq + col->second] = st.ColumnInt(3);
   }
   if (rc != SQLITE_DONE) return sql::ErrorStatus(db_.get(), path_);
-  return Status::Ok();
+  return version ? CurrentVersion(version) : Status::Ok();
 }
 
 Status Store::FindDocument(const std::string& digest,
@@ -214,7 +217,8 @@ Status Store::FindDocument(const std::string& digest,
   out->reset();
   if (!find_document_.ok()) {
     find_document_ = sql::Statement(db_.get(),
-                                    "SELECT l.digest, q.name, l.source, l.learned_at, l.tokens "
+                                    "SELECT l.digest, q.name, l.source, l.learned_at, l.tokens, "
+                                    "l.in_model "
                                     "FROM ledger l JOIN queues q ON q.id = l.queue_id "
                                     "WHERE l.digest = ?");
     if (!find_document_.ok()) return Status::IoError(path_ + ": " + find_document_.error());
@@ -225,7 +229,7 @@ Status Store::FindDocument(const std::string& digest,
   if (rc == SQLITE_ROW) {
     *out = LedgerEntry{std::string(st.ColumnText(0)), std::string(st.ColumnText(1)),
                        std::string(st.ColumnText(2)), std::string(st.ColumnText(3)),
-                       st.ColumnInt(4)};
+                       st.ColumnInt(4), st.ColumnInt(5) != 0};
   }
   Status s = rc == SQLITE_ROW || rc == SQLITE_DONE ? Status::Ok()
                                                    : sql::ErrorStatus(db_.get(), path_);
@@ -238,7 +242,8 @@ Status Store::ReadLedger(const std::function<void(LedgerDocument&)>& fn) {
   if (!read.status().ok()) return read.status();
   sql::Statement st(db_.get(),
                     "SELECT l.digest, q.name, l.source, l.learned_at, l.tokens, l.term_counts "
-                    "FROM ledger l JOIN queues q ON q.id = l.queue_id ORDER BY l.id");
+                    "FROM ledger l JOIN queues q ON q.id = l.queue_id WHERE l.in_model = 1 "
+                    "ORDER BY l.id");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
   LedgerDocument doc;
   int rc;
@@ -266,14 +271,19 @@ Status Store::ReadCountsAndLedger(ModelCounts* counts,
   return s.ok() ? ReadLedger(fn) : s;
 }
 
-Status Store::Learn(const LearnBatch& batch, const std::string& now,
+Status Store::Learn(const LearnBatch& batch, const ChangeInfo& change,
                     LearnResult* result) {
   sql::Transaction tx(db_.get());
   if (!tx.status().ok()) {
     return Status::Busy(path_ + ": " + tx.status().message());
   }
-  Status s = LearnInTransaction(batch, now, result);
+  VersionDelta delta;
+  Status s = LearnInTransaction(batch, change.now, result, &delta);
   if (!s.ok()) return s;
+  if (!delta.changes.empty()) {
+    s = RecordVersionInTransaction("learn", change, delta);
+    if (!s.ok()) return s;
+  }
   s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();
@@ -301,7 +311,7 @@ Status Store::QueueIdInTransaction(const std::string& name, const std::string& n
 }
 
 Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now,
-                                 LearnResult* result) {
+                                 LearnResult* result, VersionDelta* delta) {
   *result = LearnResult();
   const auto& docs = batch.documents();
   sqlite3* db = db_.get();
@@ -332,7 +342,7 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
   {
     sql::Statement known(db,
                          "SELECT q.name FROM ledger l JOIN queues q ON q.id = l.queue_id "
-                         "WHERE l.digest = ?");
+                         "WHERE l.digest = ? AND l.in_model = 1");
     if (!known.ok()) return Status::IoError(path_ + ": " + known.error());
     // The queue each digest is in after the documents before this one.
     std::unordered_map<std::string_view, std::string_view> current;
@@ -455,9 +465,15 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
   }
 
   {
+    // A document kept only for history (in_model = 0) enters the model
+    // again under its ledger id, so that the change log follows it.
     sql::Statement add(db,
                        "INSERT INTO ledger(digest, queue_id, source, learned_at, tokens, "
-                       "term_counts, text) VALUES(?, ?, ?, ?, ?, ?, ?)");
+                       "term_counts, text) VALUES(?, ?, ?, ?, ?, ?, ?) "
+                       "ON CONFLICT(digest) DO UPDATE SET queue_id = excluded.queue_id, "
+                       "source = excluded.source, learned_at = excluded.learned_at, "
+                       "tokens = excluded.tokens, term_counts = excluded.term_counts, "
+                       "text = COALESCE(excluded.text, text), in_model = 1 RETURNING id");
     if (!add.ok()) return Status::IoError(path_ + ": " + add.error());
     std::vector<std::pair<uint32_t, int64_t>> ranked;
     std::vector<std::pair<std::string_view, int64_t>> own;
@@ -469,8 +485,9 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
       std::sort(ranked.begin(), ranked.end());
       own.clear();
       for (const auto& [r, count] : ranked) own.emplace_back(batch.term(by_text[r]), count);
+      const int64_t queue_id = queue_ids[queue_index[d.queue]];
       add.Bind(1, d.digest)
-          .Bind(2, queue_ids[queue_index[d.queue]])
+          .Bind(2, queue_id)
           .Bind(3, d.source)
           .Bind(4, now)
           .Bind(5, d.tokens)
@@ -482,8 +499,12 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
       } else {
         add.BindNull(7);
       }
-      Status s = add.Run();
+      if (add.Step() != SQLITE_ROW) return fail(sql::ErrorStatus(db, path_));
+      const int64_t ledger_id = add.ColumnInt(0);
+      Status s = add.Run();  // finishes the statement (RETURNING) and resets it
       if (!s.ok()) return fail(s);
+      delta->changes.push_back({ledger_id, 0, queue_id});
+      ++delta->added;
     }
   }
   // Corrections, in batch order, now that every new document is in the
@@ -495,7 +516,7 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
       moves.emplace_back(docs[i].digest, queue_ids[queue_index[docs[i].queue]]);
     }
     std::vector<std::string> from;
-    Status s = MoveInTransaction(moves, &from);
+    Status s = MoveInTransaction(moves, &from, delta);
     if (!s.ok()) return fail(s);
     result->corrected = static_cast<int64_t>(moves.size());
   }
@@ -511,7 +532,8 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
   return Status::Ok();
 }
 
-Status Store::SetPrior(const std::string& queue, std::optional<double> prior) {
+Status Store::SetPrior(const std::string& queue, std::optional<double> prior,
+                       const ChangeInfo& change) {
   sql::Transaction tx(db_.get());
   if (!tx.status().ok()) return tx.status();
   sql::Statement find(db_.get(), "SELECT id FROM queues WHERE name = ?");
@@ -538,6 +560,8 @@ Status Store::SetPrior(const std::string& queue, std::optional<double> prior) {
     set.BindNull(1);
   }
   Status s = set.Bind(2, id).Run();
+  if (!s.ok()) return s;
+  s = RecordVersionInTransaction("queues", change, VersionDelta());
   if (!s.ok()) return s;
   return tx.Commit();
 }

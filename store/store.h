@@ -23,6 +23,7 @@
 #include "store/status.h"
 #include "store/store_settings.h"
 #include "store/term_counts_codec.h"
+#include "store/version_codec.h"
 
 namespace chute {
 
@@ -43,6 +44,10 @@ struct LedgerEntry {
   std::string source;
   std::string learned_at;
   int64_t tokens = 0;
+  // False for a document kept only for history: a rollback took it out of
+  // the model, or its queue was retired. It routes nothing and a new learn
+  // of it counts it again.
+  bool in_model = true;
 };
 
 // A learned document with its own term counts, as the ledger keeps it.
@@ -73,13 +78,60 @@ struct LearnResult {
   int64_t new_terms = 0;  // terms the vocabulary did not have
 };
 
-// Who makes a change, and when. There is no change log yet: `by` reaches
-// the store so that the version system, when it comes, records it in one
-// place; today nothing stores it.
+// Who makes a change, and when; recorded with the version the change makes.
 struct ChangeInfo {
-  std::string now;  // RFC 3339 UTC
+  std::string now;  // RFC 3339 UTC; empty: the store's clock
   std::string by;   // the person or job that asked for the change
 };
+
+// One committed change of the model (see schema.h, "versions").
+struct VersionInfo {
+  int64_t version = 0;
+  std::string time;     // RFC 3339 UTC
+  std::string command;  // init, learn, correct, forget, rebuild, promote, ...
+  std::string by;
+  int64_t added = 0;    // documents that entered the model
+  int64_t moved = 0;    // documents moved between queues
+  int64_t removed = 0;  // documents that left the model
+  std::string fingerprint;  // fingerprint.h, of the model after the change
+  std::string details;      // JSON kept with the version (promote), or empty
+};
+
+// What the model of a version was made of: its settings, its queues and
+// which learned documents it counted, in which queue. Documents forgotten
+// since are not among the members (forget erases them from the history).
+struct VersionState {
+  VersionInfo info;
+  StoreSettings settings;
+  std::vector<VersionQueue> queues;
+  std::vector<std::pair<int64_t, int64_t>> members;  // (ledger id, queue id), by ledger id
+};
+
+// A document entering the model (from_queue 0), leaving it (to_queue 0) or
+// moving between queues; queue and ledger ids as in the store.
+struct MemberChange {
+  int64_t ledger_id = 0;
+  int64_t from_queue = 0;
+  int64_t to_queue = 0;
+};
+
+// What a change did to the model, for its version row and the change log.
+struct VersionDelta {
+  int64_t added = 0;
+  int64_t moved = 0;
+  int64_t removed = 0;
+  std::vector<MemberChange> changes;
+  std::string details;  // JSON, or empty
+};
+
+struct RollbackResult {
+  VersionInfo made;  // the new version the rollback created
+  int64_t added = 0, moved = 0, removed = 0;
+};
+
+// A snapshot of the membership is written every this many versions, so a
+// version's model is found from at most this many versions of change log.
+inline constexpr int64_t kSnapshotEvery = 64;
 
 // How a user names a learned document. Tried in this order: the exact
 // digest of the file as it is now, the stored source path, a digest prefix.
@@ -156,8 +208,9 @@ class Store {
  public:
   // Creates a new store at path with the given settings. Fails when the file
   // exists. REQUIRES: settings valid (see cli/common_options.h).
+  // Records version 1 ("init", an empty model).
   static Status Create(const std::string& path, const StoreSettings& settings,
-                       std::unique_ptr<Store>* out);
+                       std::unique_ptr<Store>* out, const ChangeInfo& change = {});
   // Opens an existing store, upgrading an older schema. Fails with a clear
   // message for a missing file, a file that is not a chute store, or a store
   // of a newer schema.
@@ -175,7 +228,44 @@ class Store {
   Status VocabularySize(int64_t* out);
   // The counts a Model is built from, queues ordered by name, terms in byte
   // order of their text (so the model does not depend on learning order).
-  Status LoadModelCounts(ModelCounts* out);
+  // With version, also the current version (read in the same snapshot).
+  // Retired queues are left out.
+  Status LoadModelCounts(ModelCounts* out, VersionInfo* version = nullptr);
+
+  // Versions, oldest first (those pruned are gone).
+  Status ListVersions(std::vector<VersionInfo>* out);
+  // The newest version: the current model's.
+  Status CurrentVersion(VersionInfo* out);
+  // The settings, queues and members of version v, from the nearest
+  // snapshot at or before it and the change log. NotFound for a version
+  // that does not exist or was pruned.
+  Status LoadVersionState(int64_t v, VersionState* out);
+  // The counts of version v's model, summed from its members' stored term
+  // counts, with the settings it used. Works only while the ledger's term
+  // counts were made with v's tokenizing settings (no rebuild changed them
+  // since): otherwise InvalidArgument saying so; the documents must then be
+  // recounted from their kept text (see the rebuild in cli/).
+  Status ModelAtVersion(int64_t v, VersionInfo* info, StoreSettings* settings,
+                        ModelCounts* out);
+  // Makes the model version v's again, as a new version ("rollback"):
+  // documents v counted and the current model does not are counted again
+  // (from the ledger), documents it did not count leave the model (kept in
+  // the ledger, in_model = 0), moved ones move back; queue names, hand-set
+  // priors, retirements and the model settings become v's. Same limits as
+  // ModelAtVersion. One transaction.
+  Status Rollback(int64_t v, const ChangeInfo& change, RollbackResult* result);
+  // Makes the model the one target describes (its members, queues and
+  // model settings; target.info is not used) as a new version named
+  // `command` with `details` (JSON or empty), in one transaction: the
+  // general form of Rollback, for promote. REQUIRES the store's tokenizing
+  // settings (InvalidArgument otherwise). Members must be ledger ids.
+  Status ApplyState(const VersionState& target, const std::string& command,
+                    const ChangeInfo& change, const std::string& details,
+                    RollbackResult* result);
+  // Drops the history before version `before`: a snapshot is written at
+  // `before`, older versions, snapshots and change log rows are deleted.
+  // *dropped gets the number of versions deleted.
+  Status PruneVersions(int64_t before, int64_t* dropped);
   // The ledger entry of a digest; *out is empty when it is not learned.
   Status FindDocument(const std::string& digest,
                       std::optional<LedgerEntry>* out);
@@ -194,7 +284,7 @@ class Store {
   // under another queue is moved there, as Correct does (see
   // LearnOutcome); counts are summed in memory and written in key order.
   // `now` is the RFC 3339 UTC time recorded in the ledger.
-  Status Learn(const LearnBatch& batch, const std::string& now,
+  Status Learn(const LearnBatch& batch, const ChangeInfo& change,
                LearnResult* result);
 
   // Finds the one learned document a name stands for, or says that none or
@@ -225,7 +315,8 @@ class Store {
   // Sets (or with nullopt clears) a queue's hand-set prior.
   // REQUIRES: 0 < prior < 1. Fails when the queue does not exist or the hand-
   // set priors would sum to more than 1.
-  Status SetPrior(const std::string& queue, std::optional<double> prior);
+  Status SetPrior(const std::string& queue, std::optional<double> prior,
+                  const ChangeInfo& change = {});
 
   // Calls fn for every ledger entry, in ledger id order, with its kept text
   // unpacked, inside one read transaction (a consistent view). Stops at the
@@ -249,17 +340,38 @@ class Store {
   Store(std::string path, sql::DbHandle db);
   Status LoadSettings();
   // The bodies of Learn and Correct, inside a transaction the caller holds.
+  // Adds the version's members and changes to *delta.
   Status LearnInTransaction(const LearnBatch& batch, const std::string& now,
-                            LearnResult* result);
+                            LearnResult* result, VersionDelta* delta);
   // Moves learned documents, in order: (digest, queue id) each to its queue;
   // (*from)[i] gets the queue document i was in. Nothing changes for one
-  // already there.
+  // already there. A document out of the model enters it in the new queue.
   Status MoveInTransaction(const std::vector<std::pair<std::string, int64_t>>& moves,
-                           std::vector<std::string>* from);
+                           std::vector<std::string>* from, VersionDelta* delta);
+  // Records the change just made as a new version, inside the caller's
+  // write transaction (schema.h: versions, changes, snapshots). Computes
+  // the fingerprint of the model as it now is. *made (optional) gets it.
+  Status RecordVersionInTransaction(const std::string& command, const ChangeInfo& change,
+                                    const VersionDelta& delta, VersionInfo* made = nullptr);
+  // The members of the current model, (ledger id, queue id) by ledger id.
+  Status CurrentMembersInTransaction(std::vector<std::pair<int64_t, int64_t>>* out);
+  Status ApplyStateInTransaction(const VersionState& target, const std::string& command,
+                                 const ChangeInfo& change, const std::string& details,
+                                 RollbackResult* result);
+  // Takes forgotten ledger ids out of every snapshot that holds them.
+  Status EraseFromSnapshotsInTransaction(const std::vector<int64_t>& ids);
+  // Writes a snapshot of the current membership for version v.
+  Status WriteSnapshotInTransaction(int64_t v);
   // The id of a queue, created (validated) when missing.
   Status QueueIdInTransaction(const std::string& name, const std::string& now, int64_t* id,
                               bool* created);
   Status SaveSettings(const StoreSettings& settings);
+  // Writes the settings rows and sets settings_, inside the caller's write
+  // transaction.
+  Status SaveSettingsInTransaction(const StoreSettings& settings);
+  // A store upgraded from schema version 1 has no version yet: records
+  // version 1 ("upgrade"), with every learned document entering the model.
+  Status EnsureFirstVersion();
 
   std::string path_;
   sql::DbHandle db_;

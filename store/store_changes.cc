@@ -1,8 +1,10 @@
 // Changes to what was learned: naming a learned document, moving it to
-// another queue (corrections), unlearning it (forget). Each public call is
-// one transaction; a version system can later record the change in that
-// same transaction, at the one place marked in Correct and Forget.
+// another queue (corrections), unlearning it (forget), going back to an
+// earlier version (rollback). Each public call is one transaction, which
+// records the version it makes (store_versions.cc).
+#include <algorithm>
 #include <cstdint>
+#include <functional>
 #include <string>
 #include <unordered_map>
 #include <utility>
@@ -17,8 +19,8 @@ namespace {
 
 constexpr char kLedgerColumns[] =
     "SELECT l.id, l.digest, l.queue_id, q.name, l.source, l.learned_at, "
-    "l.tokens, "
-    "l.term_counts FROM ledger l JOIN queues q ON q.id = l.queue_id ";
+    "l.tokens, l.term_counts, l.in_model "
+    "FROM ledger l JOIN queues q ON q.id = l.queue_id ";
 
 // A ledger row with its own term counts decoded.
 struct StoredDocument {
@@ -29,12 +31,13 @@ struct StoredDocument {
 };
 
 // Reads the ledger row of digest; *found is false when it is not learned.
-Status ReadStored(sqlite3* db, const std::string& path,
-                  const std::string& digest, StoredDocument* out, bool* found) {
+Status ReadStoredWhere(sqlite3* db, const std::string& path, const char* where,
+                       const std::function<void(sql::Statement&)>& bind,
+                       const std::string& what, StoredDocument* out, bool* found) {
   *found = false;
-  sql::Statement st(db, std::string(kLedgerColumns) + "WHERE l.digest = ?");
+  sql::Statement st(db, std::string(kLedgerColumns) + where);
   if (!st.ok()) return Status::IoError(path + ": " + st.error());
-  st.Bind(1, digest);
+  bind(st);
   int rc = st.Step();
   if (rc == SQLITE_DONE) return Status::Ok();
   if (rc != SQLITE_ROW) return sql::ErrorStatus(db, path);
@@ -43,13 +46,27 @@ Status ReadStored(sqlite3* db, const std::string& path,
   out->entry =
       LedgerEntry{std::string(st.ColumnText(1)), std::string(st.ColumnText(3)),
                   std::string(st.ColumnText(4)), std::string(st.ColumnText(5)),
-                  st.ColumnInt(6)};
+                  st.ColumnInt(6), st.ColumnInt(8) != 0};
   if (!DecodeTermCounts(st.ColumnBlob(7), &out->terms)) {
-    return Status::Corruption(path + ": the ledger entry of " + digest +
+    return Status::Corruption(path + ": the ledger entry of " + what +
                               " does not decode");
   }
   *found = true;
   return Status::Ok();
+}
+
+Status ReadStored(sqlite3* db, const std::string& path,
+                  const std::string& digest, StoredDocument* out, bool* found) {
+  return ReadStoredWhere(
+      db, path, "WHERE l.digest = ?", [&](sql::Statement& st) { st.Bind(1, digest); },
+      digest, out, found);
+}
+
+Status ReadStoredById(sqlite3* db, const std::string& path, int64_t id,
+                      StoredDocument* out, bool* found) {
+  return ReadStoredWhere(
+      db, path, "WHERE l.id = ?", [&](sql::Statement& st) { st.Bind(1, id); },
+      "ledger id " + std::to_string(id), out, found);
 }
 
 // Adds or subtracts one document's term counts in one queue, with prepared
@@ -164,14 +181,14 @@ class CountEditor {
 
 Status Store::MoveInTransaction(
     const std::vector<std::pair<std::string, int64_t>>& moves,
-    std::vector<std::string>* from) {
+    std::vector<std::string>* from, VersionDelta* delta) {
   from->clear();
   if (moves.empty()) return Status::Ok();
   sqlite3* db = db_.get();
   CountEditor edit(db, path_);
   Status s = edit.status();
   if (!s.ok()) return s;
-  sql::Statement relabel(db, "UPDATE ledger SET queue_id = ? WHERE id = ?");
+  sql::Statement relabel(db, "UPDATE ledger SET queue_id = ?, in_model = 1 WHERE id = ?");
   if (!relabel.ok()) return Status::IoError(path_ + ": " + relabel.error());
   for (const auto& [digest, to_queue_id] : moves) {
     StoredDocument doc;
@@ -181,9 +198,17 @@ Status Store::MoveInTransaction(
     if (!found)
       return Status::NotFound(path_ + ": " + digest + " is not learned");
     from->push_back(doc.entry.queue);
-    if (doc.queue_id == to_queue_id) continue;
-    int64_t dropped = 0;
-    s = edit.Subtract(doc.queue_id, doc, /*drop_terms=*/false, &dropped);
+    if (doc.entry.in_model) {
+      if (doc.queue_id == to_queue_id) continue;
+      int64_t dropped = 0;
+      s = edit.Subtract(doc.queue_id, doc, /*drop_terms=*/false, &dropped);
+      delta->changes.push_back({doc.ledger_id, doc.queue_id, to_queue_id});
+      ++delta->moved;
+    } else {
+      // Kept only for history: a correction counts it again.
+      delta->changes.push_back({doc.ledger_id, 0, to_queue_id});
+      ++delta->added;
+    }
     if (s.ok()) s = edit.Add(to_queue_id, doc);
     if (s.ok()) s = relabel.Bind(1, to_queue_id).Bind(2, doc.ledger_id).Run();
     if (!s.ok()) return s;
@@ -204,7 +229,7 @@ Status Store::ResolveDocument(const DocumentName& name, Resolution* out) {
     *done = false;
     sql::Statement st(
         db,
-        "SELECT l.digest, q.name, l.source, l.learned_at, l.tokens "
+        "SELECT l.digest, q.name, l.source, l.learned_at, l.tokens, l.in_model "
         "FROM ledger l JOIN queues q ON q.id = l.queue_id WHERE " +
             where + " ORDER BY l.digest LIMIT ?");
     if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
@@ -217,7 +242,7 @@ Status Store::ResolveDocument(const DocumentName& name, Resolution* out) {
       rows.push_back(LedgerEntry{
           std::string(st.ColumnText(0)), std::string(st.ColumnText(1)),
           std::string(st.ColumnText(2)), std::string(st.ColumnText(3)),
-          st.ColumnInt(4)});
+          st.ColumnInt(4), st.ColumnInt(5) != 0});
     }
     if (rc != SQLITE_DONE) return sql::ErrorStatus(db, path_);
     if (rows.empty()) return Status::Ok();
@@ -270,14 +295,18 @@ Status Store::Correct(const std::vector<CorrectMove>& moves,
     }
     targets.emplace_back(m.digest, it->second);
   }
-  if (Status s = MoveInTransaction(targets, &result->from); !s.ok()) return s;
-  for (size_t i = 0; i < moves.size(); ++i)
-    result->moved += result->from[i] != moves[i].queue;
+  VersionDelta delta;
+  if (Status s = MoveInTransaction(targets, &result->from, &delta); !s.ok())
+    return s;
+  result->moved = delta.moved + delta.added;
   if (!batch.empty()) {
-    Status s = LearnInTransaction(batch, change.now, &result->learned);
+    Status s = LearnInTransaction(batch, change.now, &result->learned, &delta);
     if (!s.ok()) return s;
   }
-  // A version system records the change (change.by, the moves) here.
+  if (!delta.changes.empty()) {
+    Status s = RecordVersionInTransaction("correct", change, delta);
+    if (!s.ok()) return s;
+  }
   Status s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();
@@ -286,7 +315,6 @@ Status Store::Correct(const std::vector<CorrectMove>& moves,
 Status Store::Forget(const std::vector<std::string>& digests,
                      const ChangeInfo& change, ForgetResult* result) {
   *result = ForgetResult();
-  (void)change;  // recorded by the version system, when it comes (store.h)
   sqlite3* db = db_.get();
   // Deleted rows, index entries and freed pages are overwritten with zeros
   // (SQLite, "PRAGMA secure_delete", sqlite.org/pragma.html).
@@ -299,7 +327,11 @@ Status Store::Forget(const std::vector<std::string>& digests,
     CountEditor edit(db, path_);
     if (s = edit.status(); !s.ok()) return s;
     sql::Statement remove(db, "DELETE FROM ledger WHERE id = ?");
-    if (!remove.ok()) return Status::IoError(path_ + ": " + remove.error());
+    sql::Statement unlog(db, "DELETE FROM changes WHERE document = ?");
+    if (!remove.ok() || !unlog.ok())
+      return Status::IoError(path_ + ": " + remove.error() + unlog.error());
+    VersionDelta delta;
+    std::vector<int64_t> erased;
     for (const std::string& digest : digests) {
       StoredDocument doc;
       bool found = false;
@@ -307,21 +339,184 @@ Status Store::Forget(const std::vector<std::string>& digests,
       if (!s.ok()) return s;
       if (!found)
         return Status::NotFound(path_ + ": " + digest + " is not learned");
-      s = edit.Subtract(doc.queue_id, doc, /*drop_terms=*/true,
-                        &result->removed_terms);
-      if (!s.ok()) return s;
+      if (doc.entry.in_model) {
+        s = edit.Subtract(doc.queue_id, doc, /*drop_terms=*/true,
+                          &result->removed_terms);
+        if (!s.ok()) return s;
+        ++delta.removed;
+      }
       s = remove.Bind(1, doc.ledger_id).Run();
+      // Every trace in the history too: the change log and the snapshots.
+      if (s.ok()) s = unlog.Bind(1, doc.ledger_id).Run();
       if (!s.ok()) return s;
+      erased.push_back(doc.ledger_id);
       result->forgotten.push_back(std::move(doc.entry));
     }
-    // A version system records the change (change.by, the digests, never
-    // their content) here.
+    if (s = EraseFromSnapshotsInTransaction(erased); !s.ok()) return s;
+    // The version records how many documents left, never which.
+    s = RecordVersionInTransaction("forget", change, delta);
+    if (!s.ok()) return s;
     s = tx.Commit();
     if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   }
   // Empty the write-ahead log, which otherwise keeps the pages as they were
   // before.
   result->checkpointed = sql::CheckpointTruncate(db);
+  return Status::Ok();
+}
+
+}  // namespace chute
+
+namespace chute {
+
+Status Store::Rollback(int64_t v, const ChangeInfo& change,
+                       RollbackResult* result) {
+  *result = RollbackResult();
+  sql::Transaction tx(db_.get());
+  if (!tx.status().ok())
+    return Status::Busy(path_ + ": " + tx.status().message());
+  VersionState target;
+  Status s = LoadVersionState(v, &target);
+  if (!s.ok()) return s;
+  if (!SameTokenizing(target.settings, settings_)) {
+    return Status::InvalidArgument(
+        path_ + ": version " + std::to_string(v) +
+        " tokenized with other settings than the store's documents are "
+        "counted with now (a rebuild changed them); its documents must be "
+        "recounted from their kept text");
+  }
+  s = ApplyStateInTransaction(target, "rollback", change,
+                              "{\"rollback_to\":" + std::to_string(v) + "}",
+                              result);
+  if (!s.ok()) return s;
+  s = tx.Commit();
+  if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
+  return Status::Ok();
+}
+
+Status Store::ApplyState(const VersionState& target, const std::string& command,
+                         const ChangeInfo& change, const std::string& details,
+                         RollbackResult* result) {
+  *result = RollbackResult();
+  sql::Transaction tx(db_.get());
+  if (!tx.status().ok())
+    return Status::Busy(path_ + ": " + tx.status().message());
+  if (!SameTokenizing(target.settings, settings_)) {
+    return Status::InvalidArgument(
+        path_ + ": the model to apply tokenizes with other settings than the "
+        "store's documents are counted with");
+  }
+  Status s = ApplyStateInTransaction(target, command, change, details, result);
+  if (!s.ok()) return s;
+  s = tx.Commit();
+  if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
+  return Status::Ok();
+}
+
+Status Store::ApplyStateInTransaction(const VersionState& target,
+                                      const std::string& command,
+                                      const ChangeInfo& change,
+                                      const std::string& details,
+                                      RollbackResult* result) {
+  sqlite3* db = db_.get();
+  Status s;
+
+  // Queues: names, hand-set priors and retirements as they were. Names
+  // change in two steps, through names no queue can have ('\x01' is refused
+  // by queue_name.h), so that swapped names never collide.
+  {
+    sql::Statement park(db, "UPDATE queues SET name = ? WHERE id = ?");
+    sql::Statement set(db,
+                       "UPDATE queues SET name = ?, set_prior = ?, retired = "
+                       "CASE WHEN ? THEN IFNULL(retired, ?) ELSE NULL END "
+                       "WHERE id = ?");
+    if (!park.ok() || !set.ok())
+      return Status::IoError(path_ + ": " + park.error() + set.error());
+    for (const VersionQueue& q : target.queues) {
+      s = park.Bind(1, "\x01" + std::to_string(q.id)).Bind(2, q.id).Run();
+      if (!s.ok()) return s;
+    }
+    for (const VersionQueue& q : target.queues) {
+      set.Bind(1, q.name);
+      if (q.set_prior) {
+        set.Bind(2, *q.set_prior);
+      } else {
+        set.BindNull(2);
+      }
+      std::string now = change.now.empty() ? target.info.time : change.now;
+      if (now.empty()) now = "unknown";
+      s = set.Bind(3, int64_t{q.retired}).Bind(4, now).Bind(5, q.id).Run();
+      if (!s.ok()) return s;
+    }
+    // Queues made after v have no documents at v: their priors go.
+    sql::Statement later(db, "UPDATE queues SET set_prior = NULL WHERE id > ?");
+    int64_t last = 0;
+    for (const VersionQueue& q : target.queues) last = std::max(last, q.id);
+    if (s = later.Bind(1, last).Run(); !s.ok()) return s;
+  }
+
+  // Members: out, back in, or moved back.
+  std::vector<std::pair<int64_t, int64_t>> now_members;
+  if (s = CurrentMembersInTransaction(&now_members); !s.ok()) return s;
+  std::unordered_map<int64_t, int64_t> current(now_members.begin(),
+                                               now_members.end());
+  VersionDelta delta;
+  CountEditor edit(db, path_);
+  if (s = edit.status(); !s.ok()) return s;
+  sql::Statement leave(db, "UPDATE ledger SET in_model = 0 WHERE id = ?");
+  sql::Statement enter(db,
+                       "UPDATE ledger SET in_model = 1, queue_id = ? WHERE id = ?");
+  if (!leave.ok() || !enter.ok())
+    return Status::IoError(path_ + ": " + leave.error() + enter.error());
+  int64_t dropped = 0;
+  // Leaving first, so that the vocabulary never holds a term without a count.
+  std::unordered_map<int64_t, int64_t> wanted(target.members.begin(),
+                                              target.members.end());
+  for (const auto& [id, queue] : now_members) {
+    auto w = wanted.find(id);
+    if (w != wanted.end() && w->second == queue) continue;
+    StoredDocument doc;
+    bool found = false;
+    if (s = ReadStoredById(db, path_, id, &doc, &found); !s.ok()) return s;
+    if (!found) return Status::Corruption(path_ + ": a member is not in the ledger");
+    s = edit.Subtract(queue, doc, /*drop_terms=*/true, &dropped);
+    if (!s.ok()) return s;
+    if (w == wanted.end()) {
+      if (s = leave.Bind(1, id).Run(); !s.ok()) return s;
+      delta.changes.push_back({id, queue, 0});
+      ++delta.removed;
+    }
+  }
+  for (const auto& [id, queue] : target.members) {
+    auto c = current.find(id);
+    if (c != current.end() && c->second == queue) continue;
+    StoredDocument doc;
+    bool found = false;
+    if (s = ReadStoredById(db, path_, id, &doc, &found); !s.ok()) return s;
+    if (!found) return Status::Corruption(path_ + ": a member is not in the ledger");
+    s = edit.Add(queue, doc);
+    if (s.ok()) s = enter.Bind(1, queue).Bind(2, id).Run();
+    if (!s.ok()) return s;
+    if (c == current.end()) {
+      delta.changes.push_back({id, 0, queue});
+      ++delta.added;
+    } else {
+      delta.changes.push_back({id, c->second, queue});
+      ++delta.moved;
+    }
+  }
+
+  // The model settings of v (its tokenizing settings are the store's).
+  StoreSettings settings = settings_;
+  settings.model = target.settings.model;
+  if (s = SaveSettingsInTransaction(settings); !s.ok()) return s;
+
+  delta.details = details;
+  s = RecordVersionInTransaction(command, change, delta, &result->made);
+  if (!s.ok()) return s;
+  result->added = delta.added;
+  result->moved = delta.moved;
+  result->removed = delta.removed;
   return Status::Ok();
 }
 

@@ -19,7 +19,34 @@ bool ParseInt(std::string_view s, int32_t* v) {
   return r.ec == std::errc() && r.ptr == s.data() + s.size();
 }
 
+std::string FormatDouble(double v) {
+  char buf[32];
+  auto r = std::to_chars(buf, buf + sizeof buf, v);
+  return std::string(buf, r.ptr);
+}
+
 }  // namespace
+
+std::vector<std::pair<std::string, std::string>> EncodeSettings(const StoreSettings& settings) {
+  const TokenizerOptions& t = settings.tokenizer;
+  const ModelOptions& m = settings.model;
+  return {
+      {"alpha", FormatDouble(m.alpha)},
+      {"prior", m.prior == PriorMode::kUniform ? "uniform" : "learned"},
+      {"bigrams", t.bigrams ? "on" : "off"},
+      {"numbers", t.numbers == NumberMode::kFold ? "fold" : "keep"},
+      {"min_length", std::to_string(t.min_length)},
+      {"max_length", std::to_string(t.max_length)},
+      {"keep_text", settings.keep_text ? "on" : "off"},
+  };
+}
+
+bool SameTokenizing(const StoreSettings& a, const StoreSettings& b) {
+  const TokenizerOptions& x = a.tokenizer;
+  const TokenizerOptions& y = b.tokenizer;
+  return x.bigrams == y.bigrams && x.numbers == y.numbers && x.min_length == y.min_length &&
+         x.max_length == y.max_length;
+}
 
 bool DecodeSettings(
     const std::vector<std::pair<std::string, std::string>>& rows,

@@ -20,6 +20,13 @@ struct StoreSettings {
   bool keep_text = true;
 };
 
+// The settings table's (key, value) rows for settings, in a fixed order.
+std::vector<std::pair<std::string, std::string>> EncodeSettings(const StoreSettings& settings);
+
+// True when two settings tokenize every document alike (the ledger's term
+// counts made under one are valid under the other).
+bool SameTokenizing(const StoreSettings& a, const StoreSettings& b);
+
 // Reads the settings table's (key, value) rows. Returns false, with the
 // reason in plain words in *why, when a setting is missing, repeated or has
 // a value chute cannot use (alpha not a positive number, an unknown word,

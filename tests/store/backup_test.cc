@@ -36,7 +36,7 @@ void MakeStore(const std::string& path, unsigned first, unsigned n) {
               {"term" + std::to_string(i % 7), "shared"});
   }
   LearnResult result;
-  ASSERT_TRUE(store->Learn(batch, "2026-05-01T09:30:00Z", &result).ok());
+  ASSERT_TRUE(store->Learn(batch, {"2026-05-01T09:30:00Z", "tester"}, &result).ok());
 }
 
 int64_t Documents(const std::string& path) {

@@ -26,7 +26,8 @@ using testing_files::WriteFile;
 const std::set<std::string> kAllChecks = {
     "sqlite_integrity", "foreign_keys",       "settings",        "queue_names",
     "ledger_blobs",     "ledger_tokens",      "counts_positive", "vocabulary",
-    "queue_totals",     "counts_match_ledger", "ledger_text"};
+    "queue_totals",     "counts_match_ledger", "history",       "fingerprint",
+    "ledger_text"};
 
 std::string Digest(unsigned n) {
   char buf[65];
@@ -51,7 +52,7 @@ class CheckTest : public ::testing::Test {
     batch.Add(Digest(3), "freight", "c.txt",
               {"lorry", "permit", "lorry", "crane"});
     LearnResult result;
-    ASSERT_TRUE(store->Learn(batch, "2026-05-01T09:30:00Z", &result).ok());
+    ASSERT_TRUE(store->Learn(batch, {"2026-05-01T09:30:00Z", "tester"}, &result).ok());
     ASSERT_EQ(result.learned, 3);
   }
 
@@ -162,7 +163,7 @@ TEST_F(CheckTest, CountNamingAMissingQueueIsAnOrphan) {
 TEST_F(CheckTest, UnusableSettingFailsSettings) {
   Damage("UPDATE settings SET value = 'sometimes' WHERE key = 'bigrams'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"settings"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"settings", "fingerprint"}))
       << Findings(report);
   EXPECT_NE(Findings(report).find("bigrams"), std::string::npos);
 }
@@ -170,14 +171,14 @@ TEST_F(CheckTest, UnusableSettingFailsSettings) {
 TEST_F(CheckTest, MissingSettingFailsSettings) {
   Damage("DELETE FROM settings WHERE key = 'alpha'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"settings"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"settings", "fingerprint"}))
       << Findings(report);
 }
 
 TEST_F(CheckTest, HandSetPriorsAboveOneFailSettings) {
   Damage("UPDATE queues SET set_prior = 0.6");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"settings"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"settings", "fingerprint"}))
       << Findings(report);
   EXPECT_NE(Findings(report).find("sum to more than 1"), std::string::npos);
 }
@@ -185,7 +186,7 @@ TEST_F(CheckTest, HandSetPriorsAboveOneFailSettings) {
 TEST_F(CheckTest, InvalidQueueNameFailsQueueNames) {
   Damage("UPDATE queues SET name = '_review' WHERE name = 'freight'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"queue_names"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"queue_names", "fingerprint"}))
       << Findings(report);
 }
 
@@ -225,7 +226,7 @@ TEST_F(CheckTest, LedgerTokensUnlikeItsTermsFailLedgerTokens) {
          "';"
          "UPDATE queues SET tokens = tokens + 1 WHERE name = 'freight'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"ledger_tokens"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"ledger_tokens", "fingerprint"}))
       << Findings(report);
 }
 
@@ -264,14 +265,14 @@ TEST_F(CheckTest, TermWithoutCountsFailsVocabulary) {
 TEST_F(CheckTest, QueueDocumentsUnlikeTheLedgerFailQueueTotals) {
   Damage("UPDATE queues SET documents = documents + 1 WHERE name = 'permits'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"queue_totals"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"queue_totals", "fingerprint"}))
       << Findings(report);
 }
 
 TEST_F(CheckTest, QueueTokensUnlikeTheLedgerFailQueueTotals) {
   Damage("UPDATE queues SET tokens = tokens - 1 WHERE name = 'freight'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"queue_totals"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"queue_totals", "fingerprint"}))
       << Findings(report);
 }
 
@@ -282,7 +283,7 @@ TEST_F(CheckTest, CountUnlikeTheLedgerFailsCountsMatchLedger) {
       "'permit') AND queue_id = (SELECT id FROM queues WHERE name = "
       "'freight')");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"counts_match_ledger"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"counts_match_ledger", "fingerprint"}))
       << Findings(report);
   EXPECT_NE(Findings(report).find(
                 "the counts say 2, the queue's ledger entries sum to 1"),
@@ -297,7 +298,7 @@ TEST_F(CheckTest, CountRowMissingFailsCountsMatchLedger) {
       "'permit') "
       "AND queue_id = (SELECT id FROM queues WHERE name = 'freight')");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"counts_match_ledger"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"counts_match_ledger", "fingerprint"}))
       << Findings(report);
   EXPECT_NE(Findings(report).find("the counts have no row"), std::string::npos);
 }

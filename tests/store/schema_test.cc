@@ -211,7 +211,7 @@ TEST(SchemaTest, EveryOlderVersionIsUpgradedByOpen) {
     LearnBatch batch;
     batch.Add(std::string(64, 'f'), "permits", "d.txt", {"berth", "neu"});
     LearnResult result;
-    ASSERT_TRUE(store->Learn(batch, "2026-05-01T00:00:00Z", &result).ok());
+    ASSERT_TRUE(store->Learn(batch, {"2026-05-01T00:00:00Z", "tester"}, &result).ok());
     EXPECT_EQ(result.learned, 1);
     EXPECT_EQ(result.new_terms, 1);
     std::vector<QueueInfo> queues;

@@ -97,7 +97,7 @@ class StoreChangesTest : public testing::Test {
     for (const Doc& d : docs)
       batch.Add(d.digest, d.queue, SourceOf(d), d.terms);
     LearnResult result;
-    s = store->Learn(batch, kChange.now, &result);
+    s = store->Learn(batch, {kChange.now, "tester"}, &result);
     EXPECT_TRUE(s.ok()) << s.message();
     return store;
   }
@@ -188,7 +188,7 @@ TEST_F(StoreChangesTest, ForgetMatchesAStoreThatLearnedTheRestInAnotherOrder) {
     LearnBatch batch;
     batch.Add(d.digest, d.queue, SourceOf(d), d.terms);
     LearnResult result;
-    ASSERT_TRUE(store->Learn(batch, kChange.now, &result).ok());
+    ASSERT_TRUE(store->Learn(batch, {kChange.now, "tester"}, &result).ok());
   }
   // Forget the first documents: they brought most terms into the store.
   std::vector<std::string> digests;
@@ -225,7 +225,7 @@ TEST_F(StoreChangesTest, ForgetLeavesNoByteOfTheDocumentInTheFilesOrTheLog) {
               d.terms, it ? packed : std::string());
   }
   LearnResult learned;
-  ASSERT_TRUE(store->Learn(batch, kChange.now, &learned).ok());
+  ASSERT_TRUE(store->Learn(batch, {kChange.now, "tester"}, &learned).ok());
   const std::string db = store->path();
   auto count_of = [&](const std::string& file, const std::string& needle) {
     const std::string bytes = testing_files::ReadFile(file);

@@ -139,7 +139,7 @@ class StoreTest : public testing::Test {
   // Learns docs, expecting every one to be learned, and counts them.
   void LearnAll(Store* store, const std::vector<Doc>& docs) {
     LearnResult result;
-    Status s = store->Learn(MakeBatch(docs), kNow, &result);
+    Status s = store->Learn(MakeBatch(docs), {kNow, "tester"}, &result);
     ASSERT_TRUE(s.ok()) << s.message();
     ASSERT_EQ(result.learned, static_cast<int64_t>(docs.size()));
     for (const Doc& d : docs) expected_.Count(d);
@@ -362,7 +362,7 @@ TEST_F(StoreTest, LearnCountsABatch) {
   std::unique_ptr<Store> store = CreateStore();
   ASSERT_NE(store, nullptr);
   LearnResult result;
-  Status s = store->Learn(MakeBatch(FirstBatch()), kNow, &result);
+  Status s = store->Learn(MakeBatch(FirstBatch()), {kNow, "tester"}, &result);
   ASSERT_TRUE(s.ok()) << s.message();
   EXPECT_EQ(result.learned, 4);
   EXPECT_EQ(result.outcomes,
@@ -390,7 +390,7 @@ TEST_F(StoreTest, LearnInSeveralBatchesAddsUp) {
       {Digest(10), "permits", {"permit", "berth", "new-term"}},
       {Digest(11), "Zölle", {"zoll"}},
   };
-  ASSERT_TRUE(store->Learn(MakeBatch(more), kNow, &result).ok());
+  ASSERT_TRUE(store->Learn(MakeBatch(more), {kNow, "tester"}, &result).ok());
   EXPECT_EQ(result.learned, 2);
   EXPECT_EQ(result.new_terms, 1);  // only "new-term"
   for (const Doc& d : more) expected_.Count(d);
@@ -512,7 +512,7 @@ TEST_F(StoreTest, ReadCountsAndLedgerReadsOneConsistentSnapshot) {
   EXPECT_EQ(from_counts, summed);
   // The snapshot is closed again: the store takes a write afterwards.
   LearnResult result;
-  EXPECT_TRUE(store->Learn(MakeBatch({{Digest(99), "permits", {"pilot"}}}), kNow, &result).ok());
+  EXPECT_TRUE(store->Learn(MakeBatch({{Digest(99), "permits", {"pilot"}}}), {kNow, "tester"}, &result).ok());
 }
 
 TEST_F(StoreTest, ReadLedgerRefusesABlobThatDoesNotDecode) {
@@ -539,7 +539,7 @@ TEST_F(StoreTest, SameDigestSameQueueIsAlreadyLearned) {
   const Doc& again = FirstBatch()[0];
   LearnResult result;
   ASSERT_TRUE(
-      store->Learn(MakeBatch({again}), "2026-05-02T00:00:00Z", &result).ok());
+      store->Learn(MakeBatch({again}), {"2026-05-02T00:00:00Z", "tester"}, &result).ok());
   EXPECT_EQ(result.learned, 0);
   EXPECT_EQ(result.new_terms, 0);
   ASSERT_EQ(result.outcomes.size(), 1u);
@@ -565,7 +565,7 @@ TEST_F(StoreTest, SameDigestOtherQueueIsACorrection) {
       {first.digest, "Zölle", {"other", "terms"}},
   };
   LearnResult result;
-  ASSERT_TRUE(store->Learn(MakeBatch(relabelled), kNow, &result).ok());
+  ASSERT_TRUE(store->Learn(MakeBatch(relabelled), {kNow, "tester"}, &result).ok());
   EXPECT_EQ(result.learned, 0);
   EXPECT_EQ(result.corrected, 2);
   EXPECT_EQ(result.new_terms, 0);
@@ -597,7 +597,7 @@ TEST_F(StoreTest, DuplicateDigestInsideOneBatch) {
       {Digest(1), "moved-last", {"permit"}},
   };
   LearnResult result;
-  ASSERT_TRUE(store->Learn(MakeBatch(docs), kNow, &result).ok());
+  ASSERT_TRUE(store->Learn(MakeBatch(docs), {kNow, "tester"}, &result).ok());
   EXPECT_EQ(result.outcomes,
             (std::vector<LearnOutcome>{
                 LearnOutcome::kLearned, LearnOutcome::kAlreadyLearned,
@@ -624,7 +624,7 @@ TEST_F(StoreTest, BatchWithAnInvalidQueueNameChangesNothing) {
       {Digest(21), "_review", {"reserved"}},
   };
   LearnResult result;
-  Status s = store->Learn(MakeBatch(docs), kNow, &result);
+  Status s = store->Learn(MakeBatch(docs), {kNow, "tester"}, &result);
   ASSERT_FALSE(s.ok());
   EXPECT_EQ(s.code(), Status::Code::kInvalidArgument);
   EXPECT_NE(s.message().find("_review"), std::string::npos) << s.message();
@@ -640,7 +640,7 @@ TEST_F(StoreTest, EmptyBatchChangesNothing) {
   ASSERT_NE(store, nullptr);
   LearnAll(store.get(), FirstBatch());
   LearnResult result;
-  ASSERT_TRUE(store->Learn(LearnBatch(), kNow, &result).ok());
+  ASSERT_TRUE(store->Learn(LearnBatch(), {kNow, "tester"}, &result).ok());
   EXPECT_EQ(result.learned, 0);
   EXPECT_TRUE(result.outcomes.empty());
   expected_.Check(store.get());

@@ -88,7 +88,7 @@ class StoreTextTest : public testing::Test {
                 d.terms, Pack(d.text));
     }
     LearnResult result;
-    Status s = store->Learn(batch, now, &result);
+    Status s = store->Learn(batch, {now, "tester"}, &result);
     ASSERT_TRUE(s.ok()) << s.message();
     ASSERT_EQ(result.learned, static_cast<int64_t>(docs.size()));
   }
@@ -144,7 +144,7 @@ TEST_F(StoreTextTest, ADocumentAddedWithoutTextHasNone) {
   LearnBatch batch;
   batch.Add(Digest(7), "billing", "/inbox/7.txt", {"dues"});  // no packed text
   LearnResult result;
-  ASSERT_TRUE(store->Learn(batch, kMay, &result).ok());
+  ASSERT_TRUE(store->Learn(batch, {kMay, "tester"}, &result).ok());
   std::vector<LedgerText> texts = Texts(store.get());
   ASSERT_EQ(texts.size(), 1u);
   EXPECT_FALSE(texts[0].text.has_value());
@@ -299,7 +299,7 @@ TEST_F(StoreTextTest, PurgeLeavesNoByteOfTheTextOrPathInTheFilesOrTheLog) {
               d.terms, Pack(d.text));
   }
   LearnResult learned;
-  ASSERT_TRUE(store->Learn(batch, kMay, &learned).ok());
+  ASSERT_TRUE(store->Learn(batch, {kMay, "tester"}, &learned).ok());
   const std::string db = store->path();
   auto count = [&](const std::string& needle) {
     size_t n = 0;
