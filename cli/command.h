@@ -35,6 +35,8 @@ CommandRun SetupRestore(CLI::App* command);
 CommandRun SetupForget(CLI::App* command);
 CommandRun SetupCorrect(CLI::App* command);
 CommandRun SetupPurge(CLI::App* command);
+CommandRun SetupVersions(CLI::App* command);
+CommandRun SetupRollback(CLI::App* command);
 
 }  // namespace chute
 
