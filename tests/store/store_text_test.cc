@@ -169,6 +169,37 @@ TEST_F(StoreTextTest, CorrectKeepsTheTextOfTheDocumentsItLearns) {
   EXPECT_EQ(texts[1].text.value_or(""), docs[1].text);
 }
 
+// A rollback keeps a document in the ledger for history (in_model false)
+// with its text; learning it again brings it back into the model under the
+// same ledger entry, and a batch without text does not erase the kept one.
+TEST_F(StoreTextTest, ADocumentKeptForHistoryKeepsItsTextAndReentersWithIt) {
+  std::unique_ptr<Store> store = Create(true);
+  std::vector<Doc> docs = Letters();
+  Learn(store.get(), {docs[0]}, kMay);
+  VersionInfo before;
+  ASSERT_TRUE(store->CurrentVersion(&before).ok());
+  Learn(store.get(), {docs[1]}, kMay);
+  RollbackResult rolled;
+  ASSERT_TRUE(store->Rollback(before.version, kChange, &rolled).ok());
+  std::vector<LedgerText> texts = Texts(store.get());
+  ASSERT_EQ(texts.size(), 2u);
+  EXPECT_TRUE(texts[0].in_model);
+  EXPECT_FALSE(texts[1].in_model);
+  EXPECT_EQ(texts[1].text.value_or(""), docs[1].text);
+
+  LearnBatch batch;
+  batch.Add(docs[1].digest, docs[1].queue, "/inbox/again.txt", docs[1].terms);
+  LearnResult result;
+  ASSERT_TRUE(store->Learn(batch, {kJune, "tester"}, &result).ok());
+  ASSERT_EQ(result.learned, 1);
+  std::vector<LedgerText> again = Texts(store.get());
+  ASSERT_EQ(again.size(), 2u);
+  EXPECT_EQ(again[1].ledger_id, texts[1].ledger_id);
+  EXPECT_TRUE(again[1].in_model);
+  EXPECT_EQ(again[1].learned_at, kJune);
+  EXPECT_EQ(again[1].text.value_or(""), docs[1].text);
+}
+
 TEST_F(StoreTextTest, ReadLedgerTextsStopsAtTheFirstErrorOfTheCallback) {
   std::unique_ptr<Store> store = Create(true);
   Learn(store.get(), Letters(), kMay);
