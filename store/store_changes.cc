@@ -30,151 +30,226 @@ struct StoredDocument {
   std::vector<TermCount> terms;
 };
 
-// Reads the ledger row of digest; *found is false when it is not learned.
-Status ReadStoredWhere(sqlite3* db, const std::string& path, const char* where,
-                       const std::function<void(sql::Statement&)>& bind,
-                       const std::string& what, StoredDocument* out, bool* found) {
-  *found = false;
-  sql::Statement st(db, std::string(kLedgerColumns) + where);
-  if (!st.ok()) return Status::IoError(path + ": " + st.error());
-  bind(st);
-  int rc = st.Step();
-  if (rc == SQLITE_DONE) return Status::Ok();
-  if (rc != SQLITE_ROW) return sql::ErrorStatus(db, path);
-  out->ledger_id = st.ColumnInt(0);
-  out->queue_id = st.ColumnInt(2);
-  out->entry =
-      LedgerEntry{std::string(st.ColumnText(1)), std::string(st.ColumnText(3)),
-                  std::string(st.ColumnText(4)), std::string(st.ColumnText(5)),
-                  st.ColumnInt(6), st.ColumnInt(8) != 0};
-  if (!DecodeTermCounts(st.ColumnBlob(7), &out->terms)) {
-    return Status::Corruption(path + ": the ledger entry of " + what +
-                              " does not decode");
-  }
-  *found = true;
-  return Status::Ok();
-}
-
-Status ReadStored(sqlite3* db, const std::string& path,
-                  const std::string& digest, StoredDocument* out, bool* found) {
-  return ReadStoredWhere(
-      db, path, "WHERE l.digest = ?", [&](sql::Statement& st) { st.Bind(1, digest); },
-      digest, out, found);
-}
-
-Status ReadStoredById(sqlite3* db, const std::string& path, int64_t id,
-                      StoredDocument* out, bool* found) {
-  return ReadStoredWhere(
-      db, path, "WHERE l.id = ?", [&](sql::Statement& st) { st.Bind(1, id); },
-      "ledger id " + std::to_string(id), out, found);
-}
-
-// Adds or subtracts one document's term counts in one queue, with prepared
-// statements shared across documents. Counts never hold a zero row: a
-// subtraction that reaches zero deletes the row.
-class CountEditor {
+// Reads ledger rows with their term counts, by digest or by ledger id,
+// through statements prepared once.
+class LedgerReader {
  public:
-  CountEditor(sqlite3* db, std::string path)
+  LedgerReader(sqlite3* db, std::string path)
       : db_(db),
         path_(std::move(path)),
-        find_term_(db, "SELECT id FROM terms WHERE text = ?"),
-        add_term_(db, "INSERT INTO terms(text) VALUES(?)"),
-        upsert_(
-            db,
-            "INSERT INTO counts(term_id, queue_id, n) VALUES(?, ?, ?) "
-            "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n"),
-        lower_(db,
-               "UPDATE counts SET n = n - ? WHERE term_id = ? AND queue_id = ? "
-               "AND n > ?"),
-        remove_(
-            db,
-            "DELETE FROM counts WHERE term_id = ? AND queue_id = ? AND n = ?"),
-        drop_term_(db,
-                   "DELETE FROM terms WHERE id = ? AND NOT EXISTS "
-                   "(SELECT 1 FROM counts WHERE term_id = ?)"),
-        queue_totals_(
-            db,
-            "UPDATE queues SET documents = documents + ?, tokens = tokens + ? "
-            "WHERE id = ?") {}
+        by_digest_(db, std::string(kLedgerColumns) + "WHERE l.digest = ?"),
+        by_id_(db, std::string(kLedgerColumns) + "WHERE l.id = ?") {}
 
   Status status() const {
-    for (const sql::Statement* st : {&find_term_, &add_term_, &upsert_, &lower_,
-                                     &remove_, &drop_term_, &queue_totals_}) {
-      if (!st->ok()) return Status::IoError(path_ + ": " + st->error());
-    }
+    if (!by_digest_.ok() || !by_id_.ok())
+      return Status::IoError(path_ + ": " + by_digest_.error() + by_id_.error());
     return Status::Ok();
   }
 
-  // N(q, w) += n for every term, N(q) += tokens, documents(q) += 1.
-  Status Add(int64_t queue_id, const StoredDocument& doc) {
-    for (const auto& [term, n] : doc.terms) {
-      int64_t id = 0;
-      Status s = TermId(term, /*create=*/true, &id);
-      if (!s.ok()) return s;
-      s = upsert_.Bind(1, id).Bind(2, queue_id).Bind(3, n).Run();
-      if (!s.ok()) return s;
-    }
-    return queue_totals_.Bind(1, int64_t{1})
-        .Bind(2, doc.entry.tokens)
-        .Bind(3, queue_id)
-        .Run();
+  // *found is false when the digest is not learned.
+  Status ByDigest(const std::string& digest, StoredDocument* out, bool* found) {
+    by_digest_.Bind(1, digest);
+    return Read(&by_digest_, digest, out, found);
   }
-
-  // The reverse of Add. With drop_terms, a term whose counts are all gone
-  // is deleted from the vocabulary (counted in *dropped). Fails on counts
-  // smaller than the document's own (a damaged store).
-  Status Subtract(int64_t queue_id, const StoredDocument& doc, bool drop_terms,
-                  int64_t* dropped) {
-    for (const auto& [term, n] : doc.terms) {
-      int64_t id = 0;
-      Status s = TermId(term, /*create=*/false, &id);
-      if (!s.ok()) return s;
-      s = lower_.Bind(1, n).Bind(2, id).Bind(3, queue_id).Bind(4, n).Run();
-      if (!s.ok()) return s;
-      if (sqlite3_changes(db_) == 0) {
-        s = remove_.Bind(1, id).Bind(2, queue_id).Bind(3, n).Run();
-        if (!s.ok()) return s;
-        if (sqlite3_changes(db_) == 0) return Damaged(doc);
-        if (drop_terms) {
-          s = drop_term_.Bind(1, id).Bind(2, id).Run();
-          if (!s.ok()) return s;
-          *dropped += sqlite3_changes(db_);
-        }
-      }
-    }
-    return queue_totals_.Bind(1, int64_t{-1})
-        .Bind(2, -doc.entry.tokens)
-        .Bind(3, queue_id)
-        .Run();
+  Status ById(int64_t id, StoredDocument* out, bool* found) {
+    by_id_.Bind(1, id);
+    return Read(&by_id_, "ledger id " + std::to_string(id), out, found);
   }
 
  private:
-  Status TermId(const std::string& term, bool create, int64_t* id) {
-    find_term_.Bind(1, term);
-    int rc = find_term_.Step();
-    if (rc == SQLITE_ROW) *id = find_term_.ColumnInt(0);
-    find_term_.Reset();
-    if (rc == SQLITE_ROW) return Status::Ok();
-    if (rc != SQLITE_DONE) return sql::ErrorStatus(db_, path_);
-    if (!create)
-      return Status::Corruption(
-          path_ + ": a learned term is missing from the vocabulary");
-    Status s = add_term_.Bind(1, term).Run();
-    if (!s.ok()) return s;
-    *id = sqlite3_last_insert_rowid(db_);
-    return Status::Ok();
-  }
-
-  Status Damaged(const StoredDocument& doc) const {
-    return Status::Corruption(
-        path_ + ": the counts of queue '" + doc.entry.queue +
-        "' are smaller than those of its document " + doc.entry.digest);
+  Status Read(sql::Statement* st, const std::string& what, StoredDocument* out,
+              bool* found) {
+    *found = false;
+    int rc = st->Step();
+    Status s = Status::Ok();
+    if (rc == SQLITE_ROW) {
+      out->ledger_id = st->ColumnInt(0);
+      out->queue_id = st->ColumnInt(2);
+      out->entry = LedgerEntry{
+          std::string(st->ColumnText(1)), std::string(st->ColumnText(3)),
+          std::string(st->ColumnText(4)), std::string(st->ColumnText(5)),
+          st->ColumnInt(6), st->ColumnInt(8) != 0};
+      if (DecodeTermCounts(st->ColumnBlob(7), &out->terms)) {
+        *found = true;
+      } else {
+        s = Status::Corruption(path_ + ": the ledger entry of " + what +
+                               " does not decode");
+      }
+    } else if (rc != SQLITE_DONE) {
+      s = sql::ErrorStatus(db_, path_);
+    }
+    st->Reset();
+    return s;
   }
 
   sqlite3* db_;
   std::string path_;
-  sql::Statement find_term_, add_term_, upsert_, lower_, remove_, drop_term_,
-      queue_totals_;
+  sql::Statement by_digest_, by_id_;
+};
+
+// The counts change of a whole transaction: whole documents added to or
+// taken out of queues are summed in memory per (term, queue) and per queue,
+// then Apply writes each (term, queue) once, in the key order of `counts`
+// (term id, queue id), and each queue's documents and N(q) once, as learn
+// does (store.cc). Counts never hold a zero row: a sum that reaches zero
+// deletes the row.
+class CountDelta {
+ public:
+  // N(q, w) += sign * n for every term of doc, N(q) += sign * tokens,
+  // documents(q) += sign. sign is +1 or -1.
+  void Add(int64_t queue_id, const StoredDocument& doc, int sign) {
+    for (const auto& [term, n] : doc.terms) {
+      auto [it, inserted] =
+          term_index_.emplace(term, static_cast<uint32_t>(terms_.size()));
+      if (inserted) terms_.push_back(&it->first);
+      sums_[Key(it->second, queue_id)] += sign * n;
+    }
+    Totals& t = queues_[queue_id];
+    t.documents += sign;
+    t.tokens += sign * doc.entry.tokens;
+  }
+
+  // Writes the sums. Terms a sum adds to are created when missing. With
+  // drop_terms, a term whose counts are all gone is deleted from the
+  // vocabulary (counted in *dropped). Fails on counts smaller than what is
+  // taken out of them (a damaged store).
+  Status Apply(sqlite3* db, const std::string& path, bool drop_terms,
+               int64_t* dropped) {
+    sql::Statement find_term(db, "SELECT id FROM terms WHERE text = ?");
+    sql::Statement add_term(db, "INSERT INTO terms(text) VALUES(?)");
+    sql::Statement upsert(
+        db,
+        "INSERT INTO counts(term_id, queue_id, n) VALUES(?, ?, ?) "
+        "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n");
+    sql::Statement lower(db,
+                         "UPDATE counts SET n = n - ? WHERE term_id = ? AND "
+                         "queue_id = ? AND n > ?");
+    sql::Statement remove(
+        db, "DELETE FROM counts WHERE term_id = ? AND queue_id = ? AND n = ?");
+    sql::Statement drop_term(db,
+                             "DELETE FROM terms WHERE id = ? AND NOT EXISTS "
+                             "(SELECT 1 FROM counts WHERE term_id = ?)");
+    sql::Statement queue_totals(
+        db,
+        "UPDATE queues SET documents = documents + ?, tokens = tokens + ? "
+        "WHERE id = ?");
+    for (const sql::Statement* st : {&find_term, &add_term, &upsert, &lower,
+                                     &remove, &drop_term, &queue_totals}) {
+      if (!st->ok()) return Status::IoError(path + ": " + st->error());
+    }
+
+    // The (term, queue) sums that change something; per term, whether one
+    // adds (the term may have to be made) and whether one takes away.
+    struct Row {
+      int64_t term_id;
+      int64_t queue_id;
+      int64_t n;
+      uint32_t term;
+    };
+    std::vector<Row> rows;
+    std::vector<uint8_t> adds(terms_.size(), 0), takes(terms_.size(), 0);
+    for (const auto& [key, n] : sums_) {
+      if (n == 0) continue;
+      const auto term = static_cast<uint32_t>(key >> 32);
+      rows.push_back({0, static_cast<int64_t>(key & 0xffffffffu), n, term});
+      (n > 0 ? adds : takes)[term] = 1;
+    }
+    // Term ids, looked up (or made) in byte order of the terms.
+    std::vector<uint32_t> order;
+    for (uint32_t t = 0; t < terms_.size(); ++t) {
+      if (adds[t] || takes[t]) order.push_back(t);
+    }
+    std::sort(order.begin(), order.end(), [&](uint32_t a, uint32_t b) {
+      return *terms_[a] < *terms_[b];
+    });
+    std::vector<int64_t> term_ids(terms_.size(), 0);
+    for (uint32_t t : order) {
+      find_term.Bind(1, *terms_[t]);
+      int rc = find_term.Step();
+      if (rc == SQLITE_ROW) term_ids[t] = find_term.ColumnInt(0);
+      find_term.Reset();
+      if (rc == SQLITE_ROW) continue;
+      if (rc != SQLITE_DONE) return sql::ErrorStatus(db, path);
+      if (takes[t])
+        return Status::Corruption(
+            path + ": a learned term is missing from the vocabulary");
+      Status s = add_term.Bind(1, *terms_[t]).Run();
+      if (!s.ok()) return s;
+      term_ids[t] = sqlite3_last_insert_rowid(db);
+    }
+    for (Row& r : rows) r.term_id = term_ids[r.term];
+    std::sort(rows.begin(), rows.end(), [](const Row& a, const Row& b) {
+      return a.term_id != b.term_id ? a.term_id < b.term_id
+                                    : a.queue_id < b.queue_id;
+    });
+
+    bool emptied = false;  // a row of the current term was deleted
+    for (size_t i = 0; i < rows.size(); ++i) {
+      const Row& r = rows[i];
+      Status s;
+      if (r.n > 0) {
+        s = upsert.Bind(1, r.term_id).Bind(2, r.queue_id).Bind(3, r.n).Run();
+      } else {
+        const int64_t m = -r.n;
+        s = lower.Bind(1, m).Bind(2, r.term_id).Bind(3, r.queue_id).Bind(4, m).Run();
+        if (s.ok() && sqlite3_changes(db) == 0) {
+          s = remove.Bind(1, r.term_id).Bind(2, r.queue_id).Bind(3, m).Run();
+          if (s.ok() && sqlite3_changes(db) == 0)
+            return Damaged(db, path, r.queue_id, *terms_[r.term]);
+          emptied = true;
+        }
+      }
+      if (!s.ok()) return s;
+      const bool last_of_term =
+          i + 1 == rows.size() || rows[i + 1].term_id != r.term_id;
+      if (last_of_term) {
+        if (emptied && drop_terms) {
+          s = drop_term.Bind(1, r.term_id).Bind(2, r.term_id).Run();
+          if (!s.ok()) return s;
+          *dropped += sqlite3_changes(db);
+        }
+        emptied = false;
+      }
+    }
+
+    std::vector<std::pair<int64_t, Totals>> queues(queues_.begin(), queues_.end());
+    std::sort(queues.begin(), queues.end(),
+              [](const auto& a, const auto& b) { return a.first < b.first; });
+    for (const auto& [id, t] : queues) {
+      if (t.documents == 0 && t.tokens == 0) continue;
+      Status s =
+          queue_totals.Bind(1, t.documents).Bind(2, t.tokens).Bind(3, id).Run();
+      if (!s.ok()) return s;
+    }
+    return Status::Ok();
+  }
+
+ private:
+  struct Totals {
+    int64_t documents = 0;
+    int64_t tokens = 0;
+  };
+
+  // Queue ids are SQLite rowids of a table of a handful of rows.
+  static uint64_t Key(uint32_t term, int64_t queue_id) {
+    return (uint64_t{term} << 32) | static_cast<uint32_t>(queue_id);
+  }
+
+  static Status Damaged(sqlite3* db, const std::string& path, int64_t queue_id,
+                        const std::string& term) {
+    std::string name = "#" + std::to_string(queue_id);
+    sql::Statement st(db, "SELECT name FROM queues WHERE id = ?");
+    if (st.ok() && st.Bind(1, queue_id).Step() == SQLITE_ROW)
+      name = std::string(st.ColumnText(0));
+    return Status::Corruption(path + ": the count of term '" + term +
+                              "' in queue '" + name +
+                              "' is smaller than its documents' own");
+  }
+
+  std::unordered_map<std::string, uint32_t> term_index_;
+  std::vector<const std::string*> terms_;  // keys of term_index_, by index
+  std::unordered_map<uint64_t, int64_t> sums_;
+  std::unordered_map<int64_t, Totals> queues_;
 };
 
 }  // namespace
@@ -185,35 +260,70 @@ Status Store::MoveInTransaction(
   from->clear();
   if (moves.empty()) return Status::Ok();
   sqlite3* db = db_.get();
-  CountEditor edit(db, path_);
-  Status s = edit.status();
+  LedgerReader ledger(db, path_);
+  Status s = ledger.status();
   if (!s.ok()) return s;
-  sql::Statement relabel(db, "UPDATE ledger SET queue_id = ?, in_model = 1 WHERE id = ?");
-  if (!relabel.ok()) return Status::IoError(path_ + ": " + relabel.error());
+  std::unordered_map<int64_t, std::string> queue_names;
+  {
+    sql::Statement st(db, "SELECT id, name FROM queues");
+    if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+    int rc;
+    while ((rc = st.Step()) == SQLITE_ROW)
+      queue_names.emplace(st.ColumnInt(0), st.ColumnText(1));
+    if (rc != SQLITE_DONE) return sql::ErrorStatus(db, path_);
+  }
+  // Each document read once; the moves are followed in order in memory
+  // (where each document is, whether it is counted), then only the net
+  // change is counted: out of the queue it was in, into the one it ends in.
+  struct Moving {
+    StoredDocument doc;  // as the ledger had it before the moves
+    int64_t queue_id = 0;
+    bool in_model = false;
+  };
+  std::vector<Moving> docs;
+  std::unordered_map<std::string, size_t> index;
   for (const auto& [digest, to_queue_id] : moves) {
-    StoredDocument doc;
-    bool found = false;
-    s = ReadStored(db, path_, digest, &doc, &found);
-    if (!s.ok()) return s;
-    if (!found)
-      return Status::NotFound(path_ + ": " + digest + " is not learned");
-    from->push_back(doc.entry.queue);
-    if (doc.entry.in_model) {
-      if (doc.queue_id == to_queue_id) continue;
-      int64_t dropped = 0;
-      s = edit.Subtract(doc.queue_id, doc, /*drop_terms=*/false, &dropped);
-      delta->changes.push_back({doc.ledger_id, doc.queue_id, to_queue_id});
+    auto [it, inserted] = index.emplace(digest, docs.size());
+    if (inserted) {
+      Moving m;
+      bool found = false;
+      s = ledger.ByDigest(digest, &m.doc, &found);
+      if (!s.ok()) return s;
+      if (!found)
+        return Status::NotFound(path_ + ": " + digest + " is not learned");
+      m.queue_id = m.doc.queue_id;
+      m.in_model = m.doc.entry.in_model;
+      docs.push_back(std::move(m));
+    }
+    Moving& m = docs[it->second];
+    from->push_back(queue_names[m.queue_id]);
+    if (m.in_model) {
+      if (m.queue_id == to_queue_id) continue;
+      delta->changes.push_back({m.doc.ledger_id, m.queue_id, to_queue_id});
       ++delta->moved;
     } else {
       // Kept only for history: a correction counts it again.
-      delta->changes.push_back({doc.ledger_id, 0, to_queue_id});
+      delta->changes.push_back({m.doc.ledger_id, 0, to_queue_id});
       ++delta->added;
     }
-    if (s.ok()) s = edit.Add(to_queue_id, doc);
-    if (s.ok()) s = relabel.Bind(1, to_queue_id).Bind(2, doc.ledger_id).Run();
+    m.queue_id = to_queue_id;
+    m.in_model = true;
+  }
+  sql::Statement relabel(db, "UPDATE ledger SET queue_id = ?, in_model = 1 WHERE id = ?");
+  if (!relabel.ok()) return Status::IoError(path_ + ": " + relabel.error());
+  CountDelta counts;
+  for (const Moving& m : docs) {
+    const StoredDocument& doc = m.doc;
+    if (!m.in_model) continue;  // counted neither before nor after
+    if (doc.entry.in_model && doc.queue_id == m.queue_id) continue;  // back
+    if (doc.entry.in_model) counts.Add(doc.queue_id, doc, -1);
+    counts.Add(m.queue_id, doc, +1);
+    s = relabel.Bind(1, m.queue_id).Bind(2, doc.ledger_id).Run();
     if (!s.ok()) return s;
   }
-  return Status::Ok();
+  // Moves keep every term's total, so no term leaves the vocabulary.
+  int64_t dropped = 0;
+  return counts.Apply(db, path_, /*drop_terms=*/false, &dropped);
 }
 
 Status Store::ResolveDocument(const DocumentName& name, Resolution* out) {
@@ -326,25 +436,26 @@ Status Store::Forget(const std::vector<std::string>& digests,
     sql::Transaction tx(db);
     if (!tx.status().ok())
       return Status::Busy(path_ + ": " + tx.status().message());
-    CountEditor edit(db, path_);
-    if (s = edit.status(); !s.ok()) return s;
+    LedgerReader ledger(db, path_);
+    if (s = ledger.status(); !s.ok()) return s;
     sql::Statement remove(db, "DELETE FROM ledger WHERE id = ?");
     sql::Statement unlog(db, "DELETE FROM changes WHERE document = ?");
     if (!remove.ok() || !unlog.ok())
       return Status::IoError(path_ + ": " + remove.error() + unlog.error());
     VersionDelta delta;
     std::vector<int64_t> erased;
+    // The documents' counts are summed and taken out at the end, each
+    // (term, queue) once.
+    CountDelta counts;
     for (const std::string& digest : digests) {
       StoredDocument doc;
       bool found = false;
-      s = ReadStored(db, path_, digest, &doc, &found);
+      s = ledger.ByDigest(digest, &doc, &found);
       if (!s.ok()) return s;
       if (!found)
         return Status::NotFound(path_ + ": " + digest + " is not learned");
       if (doc.entry.in_model) {
-        s = edit.Subtract(doc.queue_id, doc, /*drop_terms=*/true,
-                          &result->removed_terms);
-        if (!s.ok()) return s;
+        counts.Add(doc.queue_id, doc, -1);
         ++delta.removed;
       }
       s = remove.Bind(1, doc.ledger_id).Run();
@@ -354,6 +465,8 @@ Status Store::Forget(const std::vector<std::string>& digests,
       erased.push_back(doc.ledger_id);
       result->forgotten.push_back(std::move(doc.entry));
     }
+    s = counts.Apply(db, path_, /*drop_terms=*/true, &result->removed_terms);
+    if (!s.ok()) return s;
     if (s = EraseFromSnapshotsInTransaction(erased); !s.ok()) return s;
     // The version records how many documents left, never which.
     s = RecordVersionInTransaction("forget", change, delta);
@@ -462,15 +575,17 @@ Status Store::ApplyStateInTransaction(const VersionState& target,
   std::unordered_map<int64_t, int64_t> current(now_members.begin(),
                                                now_members.end());
   VersionDelta delta;
-  CountEditor edit(db, path_);
-  if (s = edit.status(); !s.ok()) return s;
+  LedgerReader ledger(db, path_);
+  if (s = ledger.status(); !s.ok()) return s;
   sql::Statement leave(db, "UPDATE ledger SET in_model = 0 WHERE id = ?");
   sql::Statement enter(db,
                        "UPDATE ledger SET in_model = 1, queue_id = ? WHERE id = ?");
   if (!leave.ok() || !enter.ok())
     return Status::IoError(path_ + ": " + leave.error() + enter.error());
-  int64_t dropped = 0;
-  // Leaving first, so that the vocabulary never holds a term without a count.
+  // The counts of the documents that leave, enter or move are summed in
+  // memory and written at the end, each (term, queue) once; a moving
+  // document is read once, for both of its queues.
+  CountDelta counts;
   std::unordered_map<int64_t, int64_t> wanted(target.members.begin(),
                                               target.members.end());
   for (const auto& [id, queue] : now_members) {
@@ -478,26 +593,28 @@ Status Store::ApplyStateInTransaction(const VersionState& target,
     if (w != wanted.end() && w->second == queue) continue;
     StoredDocument doc;
     bool found = false;
-    if (s = ReadStoredById(db, path_, id, &doc, &found); !s.ok()) return s;
+    if (s = ledger.ById(id, &doc, &found); !s.ok()) return s;
     if (!found) return Status::Corruption(path_ + ": a member is not in the ledger");
-    s = edit.Subtract(queue, doc, /*drop_terms=*/true, &dropped);
-    if (!s.ok()) return s;
+    counts.Add(queue, doc, -1);
     if (w == wanted.end()) {
       if (s = leave.Bind(1, id).Run(); !s.ok()) return s;
       delta.changes.push_back({id, queue, 0});
       ++delta.removed;
+    } else {
+      counts.Add(w->second, doc, +1);
     }
   }
   for (const auto& [id, queue] : target.members) {
     auto c = current.find(id);
     if (c != current.end() && c->second == queue) continue;
-    StoredDocument doc;
-    bool found = false;
-    if (s = ReadStoredById(db, path_, id, &doc, &found); !s.ok()) return s;
-    if (!found) return Status::Corruption(path_ + ": a member is not in the ledger");
-    s = edit.Add(queue, doc);
-    if (s.ok()) s = enter.Bind(1, queue).Bind(2, id).Run();
-    if (!s.ok()) return s;
+    if (c == current.end()) {
+      StoredDocument doc;
+      bool found = false;
+      if (s = ledger.ById(id, &doc, &found); !s.ok()) return s;
+      if (!found) return Status::Corruption(path_ + ": a member is not in the ledger");
+      counts.Add(queue, doc, +1);
+    }
+    if (s = enter.Bind(1, queue).Bind(2, id).Run(); !s.ok()) return s;
     if (c == current.end()) {
       delta.changes.push_back({id, 0, queue});
       ++delta.added;
@@ -506,6 +623,9 @@ Status Store::ApplyStateInTransaction(const VersionState& target,
       ++delta.moved;
     }
   }
+  // A term whose counts are all gone leaves the vocabulary.
+  int64_t dropped = 0;
+  if (s = counts.Apply(db, path_, /*drop_terms=*/true, &dropped); !s.ok()) return s;
 
   // The model settings of v (its tokenizing settings are the store's).
   StoreSettings settings = settings_;
