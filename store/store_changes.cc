@@ -98,15 +98,23 @@ class CountDelta {
   // N(q, w) += sign * n for every term of doc, N(q) += sign * tokens,
   // documents(q) += sign. sign is +1 or -1.
   void Add(int64_t queue_id, const StoredDocument& doc, int sign) {
+    size_t q = 0;
+    while (q < queue_ids_.size() && queue_ids_[q] != queue_id) ++q;
+    if (q == queue_ids_.size()) {
+      queue_ids_.push_back(queue_id);
+      sums_.emplace_back();
+      totals_.emplace_back();
+    }
+    std::vector<int64_t>& column = sums_[q];
     for (const auto& [term, n] : doc.terms) {
       auto [it, inserted] =
           term_index_.emplace(term, static_cast<uint32_t>(terms_.size()));
       if (inserted) terms_.push_back(&it->first);
-      sums_[Key(it->second, queue_id)] += sign * n;
+      if (it->second >= column.size()) column.resize(terms_.size(), 0);
+      column[it->second] += sign * n;
     }
-    Totals& t = queues_[queue_id];
-    t.documents += sign;
-    t.tokens += sign * doc.entry.tokens;
+    totals_[q].documents += sign;
+    totals_[q].tokens += sign * doc.entry.tokens;
   }
 
   // Writes the sums. Terms a sum adds to are created when missing. With
@@ -148,11 +156,14 @@ class CountDelta {
     };
     std::vector<Row> rows;
     std::vector<uint8_t> adds(terms_.size(), 0), takes(terms_.size(), 0);
-    for (const auto& [key, n] : sums_) {
-      if (n == 0) continue;
-      const auto term = static_cast<uint32_t>(key >> 32);
-      rows.push_back({0, static_cast<int64_t>(key & 0xffffffffu), n, term});
-      (n > 0 ? adds : takes)[term] = 1;
+    for (size_t q = 0; q < queue_ids_.size(); ++q) {
+      const std::vector<int64_t>& column = sums_[q];
+      for (uint32_t term = 0; term < column.size(); ++term) {
+        const int64_t n = column[term];
+        if (n == 0) continue;
+        rows.push_back({0, queue_ids_[q], n, term});
+        (n > 0 ? adds : takes)[term] = 1;
+      }
     }
     // Term ids, looked up (or made) in byte order of the terms.
     std::vector<uint32_t> order;
@@ -212,13 +223,17 @@ class CountDelta {
       }
     }
 
-    std::vector<std::pair<int64_t, Totals>> queues(queues_.begin(), queues_.end());
-    std::sort(queues.begin(), queues.end(),
-              [](const auto& a, const auto& b) { return a.first < b.first; });
-    for (const auto& [id, t] : queues) {
+    std::vector<size_t> by_id(queue_ids_.size());
+    for (size_t q = 0; q < by_id.size(); ++q) by_id[q] = q;
+    std::sort(by_id.begin(), by_id.end(),
+              [&](size_t a, size_t b) { return queue_ids_[a] < queue_ids_[b]; });
+    for (size_t q : by_id) {
+      const Totals& t = totals_[q];
       if (t.documents == 0 && t.tokens == 0) continue;
-      Status s =
-          queue_totals.Bind(1, t.documents).Bind(2, t.tokens).Bind(3, id).Run();
+      Status s = queue_totals.Bind(1, t.documents)
+                     .Bind(2, t.tokens)
+                     .Bind(3, queue_ids_[q])
+                     .Run();
       if (!s.ok()) return s;
     }
     return Status::Ok();
@@ -229,11 +244,6 @@ class CountDelta {
     int64_t documents = 0;
     int64_t tokens = 0;
   };
-
-  // Queue ids are SQLite rowids of a table of a handful of rows.
-  static uint64_t Key(uint32_t term, int64_t queue_id) {
-    return (uint64_t{term} << 32) | static_cast<uint32_t>(queue_id);
-  }
 
   static Status Damaged(sqlite3* db, const std::string& path, int64_t queue_id,
                         const std::string& term) {
@@ -248,8 +258,11 @@ class CountDelta {
 
   std::unordered_map<std::string, uint32_t> term_index_;
   std::vector<const std::string*> terms_;  // keys of term_index_, by index
-  std::unordered_map<uint64_t, int64_t> sums_;
-  std::unordered_map<int64_t, Totals> queues_;
+  // Per queue touched (a handful): its id, its sums by term index (as long
+  // as the terms it has seen), its documents and N(q).
+  std::vector<int64_t> queue_ids_;
+  std::vector<std::vector<int64_t>> sums_;
+  std::vector<Totals> totals_;
 };
 
 }  // namespace
