@@ -10,11 +10,9 @@
 
 namespace chute {
 
-namespace {
-
 // Streams text into SHA-256 through a buffer, so that millions of short
 // lines cost one digest update per 64 KiB.
-class Hasher {
+class ModelFingerprinter::Hasher {
  public:
   Hasher() : ctx_(EVP_MD_CTX_new()) { EVP_DigestInit_ex(ctx_.get(), EVP_sha256(), nullptr); }
 
@@ -66,10 +64,10 @@ class Hasher {
   std::string buf_;
 };
 
-}  // namespace
-
-std::string ModelFingerprint(const StoreSettings& settings, const ModelCounts& counts) {
-  Hasher h;
+ModelFingerprinter::ModelFingerprinter(const StoreSettings& settings,
+                                       const std::vector<QueueCounts>& queues)
+    : hasher_(std::make_unique<Hasher>()) {
+  Hasher& h = *hasher_;
   const TokenizerOptions& t = settings.tokenizer;
   const ModelOptions& m = settings.model;
   h.Add("chute-model 1\nalpha ");
@@ -83,16 +81,13 @@ std::string ModelFingerprint(const StoreSettings& settings, const ModelCounts& c
   h.Add(static_cast<int64_t>(t.max_length));
   h.Add("\n");
 
-  const size_t nq = counts.queues.size();
-  std::vector<size_t> order;  // queues with documents, by name
-  for (size_t q = 0; q < nq; ++q) {
-    if (counts.queues[q].documents > 0) order.push_back(q);
+  for (size_t q = 0; q < queues.size(); ++q) {
+    if (queues[q].documents > 0) order_.push_back(q);
   }
-  std::sort(order.begin(), order.end(), [&](size_t a, size_t b) {
-    return counts.queues[a].name < counts.queues[b].name;
-  });
-  for (size_t q : order) {
-    const QueueCounts& qc = counts.queues[q];
+  std::sort(order_.begin(), order_.end(),
+            [&](size_t a, size_t b) { return queues[a].name < queues[b].name; });
+  for (size_t q : order_) {
+    const QueueCounts& qc = queues[q];
     h.Add("q ");
     h.AddSized(qc.name);
     h.Add(" ");
@@ -107,20 +102,33 @@ std::string ModelFingerprint(const StoreSettings& settings, const ModelCounts& c
     }
     h.Add("\n");
   }
-  for (size_t row = 0; row < counts.terms.size(); ++row) {
-    const int64_t* r = counts.counts.data() + row * nq;
-    for (size_t i = 0; i < order.size(); ++i) {
-      if (r[order[i]] == 0) continue;
-      h.Add("t ");
-      h.AddSized(counts.terms[row]);
-      h.Add(" ");
-      h.Add(static_cast<int64_t>(i));
-      h.Add(" ");
-      h.Add(r[order[i]]);
-      h.Add("\n");
-    }
+}
+
+ModelFingerprinter::~ModelFingerprinter() = default;
+
+void ModelFingerprinter::AddRow(std::string_view term, const int64_t* row) {
+  Hasher& h = *hasher_;
+  for (size_t i = 0; i < order_.size(); ++i) {
+    if (row[order_[i]] == 0) continue;
+    h.Add("t ");
+    h.AddSized(term);
+    h.Add(" ");
+    h.Add(static_cast<int64_t>(i));
+    h.Add(" ");
+    h.Add(row[order_[i]]);
+    h.Add("\n");
   }
-  return h.Hex();
+}
+
+std::string ModelFingerprinter::Hex() { return hasher_->Hex(); }
+
+std::string ModelFingerprint(const StoreSettings& settings, const ModelCounts& counts) {
+  ModelFingerprinter f(settings, counts.queues);
+  const size_t nq = counts.queues.size();
+  for (size_t row = 0; row < counts.terms.size(); ++row) {
+    f.AddRow(counts.terms[row], counts.counts.data() + row * nq);
+  }
+  return f.Hex();
 }
 
 }  // namespace chute

@@ -5,7 +5,10 @@
 #ifndef CHUTE_STORE_FINGERPRINT_H_
 #define CHUTE_STORE_FINGERPRINT_H_
 
+#include <memory>
 #include <string>
+#include <string_view>
+#include <vector>
 
 #include "classify/model_counts.h"
 #include "store/store_settings.h"
@@ -26,6 +29,29 @@ namespace chute {
 // them); queues in any order.
 // Returns 64 lowercase hex digits.
 std::string ModelFingerprint(const StoreSettings& settings, const ModelCounts& counts);
+
+// The same fingerprint fed one term row at a time, so that a store can hash
+// its counts as it reads them, without holding them all. ModelFingerprint
+// is this over the rows of counts.
+class ModelFingerprinter {
+ public:
+  // queues: the model's queues in any order; each row gives one count per
+  // queue, in this order. Only name, documents, tokens and set_prior are read.
+  ModelFingerprinter(const StoreSettings& settings, const std::vector<QueueCounts>& queues);
+  ~ModelFingerprinter();
+  ModelFingerprinter(const ModelFingerprinter&) = delete;
+  ModelFingerprinter& operator=(const ModelFingerprinter&) = delete;
+
+  // REQUIRES: terms in byte order, each once; row[i] is N(queues[i], term).
+  void AddRow(std::string_view term, const int64_t* row);
+  // 64 lowercase hex digits. Call once, after the last row.
+  std::string Hex();
+
+ private:
+  class Hasher;
+  std::unique_ptr<Hasher> hasher_;
+  std::vector<size_t> order_;  // queues with documents, by name
+};
 
 }  // namespace chute
 

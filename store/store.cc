@@ -135,9 +135,21 @@ Status Store::LoadSettings() {
 
 Status Store::ListQueues(std::vector<QueueInfo>* out) {
   out->clear();
+  // Queues and counts from one snapshot.
+  sql::ReadTransaction read(db_.get());
+  if (!read.status().ok()) return read.status();
+  // The rows of every queue in one pass over counts (its key begins with
+  // the term, so a query per queue would read all of counts each time).
+  std::unordered_map<int64_t, int64_t> rows;
+  {
+    sql::Statement st(db_.get(), "SELECT queue_id FROM counts");
+    if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+    int rc;
+    while ((rc = st.Step()) == SQLITE_ROW) ++rows[st.ColumnInt(0)];
+    if (rc != SQLITE_DONE) return sql::ErrorStatus(db_.get(), path_);
+  }
   sql::Statement st(db_.get(),
-                    "SELECT q.name, q.documents, q.tokens, q.set_prior, "
-                    "(SELECT COUNT(*) FROM counts c WHERE c.queue_id = q.id), "
+                    "SELECT q.name, q.documents, q.tokens, q.set_prior, q.id, "
                     "q.retired IS NOT NULL "
                     "FROM queues q ORDER BY q.name");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
@@ -148,7 +160,7 @@ Status Store::ListQueues(std::vector<QueueInfo>* out) {
     q.documents = st.ColumnInt(1);
     q.tokens = st.ColumnInt(2);
     if (!st.ColumnIsNull(3)) q.set_prior = st.ColumnDouble(3);
-    q.distinct_terms = st.ColumnInt(4);
+    if (auto it = rows.find(st.ColumnInt(4)); it != rows.end()) q.distinct_terms = it->second;
     q.retired = st.ColumnInt(5) != 0;
     out->push_back(std::move(q));
   }
@@ -168,24 +180,41 @@ Status Store::LoadModelCounts(ModelCounts* out, VersionInfo* version) {
   // Read in one transaction so that queues and counts agree.
   sql::ReadTransaction read(db_.get());
   if (!read.status().ok()) return read.status();
-
   std::unordered_map<int64_t, size_t> column;
-  {
-    sql::Statement st(db_.get(),
-                      "SELECT id, name, documents, tokens, set_prior FROM queues "
-                      "WHERE retired IS NULL ORDER BY name");
-    if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
-    while (st.Step() == SQLITE_ROW) {
-      QueueCounts q;
-      q.name = st.ColumnText(1);
-      q.documents = st.ColumnInt(2);
-      q.tokens = st.ColumnInt(3);
-      if (!st.ColumnIsNull(4)) q.set_prior = st.ColumnDouble(4);
-      column[st.ColumnInt(0)] = out->queues.size();
-      out->queues.push_back(std::move(q));
-    }
-  }
+  Status s = LoadModelQueues(&out->queues, &column);
+  if (!s.ok()) return s;
   const size_t nq = out->queues.size();
+  s = ScanCountRows(column, nq, [&](std::string_view term, const int64_t* row) {
+    out->terms.emplace_back(term);
+    out->counts.insert(out->counts.end(), row, row + nq);
+  });
+  if (!s.ok()) return s;
+  return version ? CurrentVersion(version) : Status::Ok();
+}
+
+Status Store::LoadModelQueues(std::vector<QueueCounts>* queues,
+                              std::unordered_map<int64_t, size_t>* column) {
+  queues->clear();
+  column->clear();
+  sql::Statement st(db_.get(),
+                    "SELECT id, name, documents, tokens, set_prior FROM queues "
+                    "WHERE retired IS NULL ORDER BY name");
+  if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+  int rc;
+  while ((rc = st.Step()) == SQLITE_ROW) {
+    QueueCounts q;
+    q.name = st.ColumnText(1);
+    q.documents = st.ColumnInt(2);
+    q.tokens = st.ColumnInt(3);
+    if (!st.ColumnIsNull(4)) q.set_prior = st.ColumnDouble(4);
+    (*column)[st.ColumnInt(0)] = queues->size();
+    queues->push_back(std::move(q));
+  }
+  return rc == SQLITE_DONE ? Status::Ok() : sql::ErrorStatus(db_.get(), path_);
+}
+
+Status Store::ScanCountRows(const std::unordered_map<int64_t, size_t>& column, size_t nq,
+                            const std::function<void(std::string_view, const int64_t*)>& fn) {
   // Terms in byte order of their text, whatever order they were learned in:
   // the rows of a model, and so the order in which a document's terms are
   // summed, depend only on the counts (a forgotten document leaves the model
@@ -195,23 +224,27 @@ Status Store::LoadModelCounts(ModelCounts* out, VersionInfo* version) {
                     "FROM terms t JOIN counts c ON c.term_id = t.id "
                     "ORDER BY t.text, c.queue_id");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+  std::string term;  // the row being gathered; a column's text lives one step
+  std::vector<int64_t> row(nq, 0);
   int64_t last_term = -1;
   int rc;
   while ((rc = st.Step()) == SQLITE_ROW) {
     int64_t term_id = st.ColumnInt(0);
     if (term_id != last_term) {
-      out->terms.emplace_back(st.ColumnText(1));
-      out->counts.resize(out->counts.size() + nq, 0);
+      if (last_term != -1) fn(term, row.data());
+      term = st.ColumnText(1);
+      std::fill(row.begin(), row.end(), 0);
       last_term = term_id;
     }
     auto col = column.find(st.ColumnInt(2));
     if (col == column.end()) {
       return Status::Corruption(path_ + ": counts name a queue that does not exist");
     }
-    out->counts[(out->terms.size() - 1) * nq + col->second] = st.ColumnInt(3);
+    row[col->second] = st.ColumnInt(3);
   }
   if (rc != SQLITE_DONE) return sql::ErrorStatus(db_.get(), path_);
-  return version ? CurrentVersion(version) : Status::Ok();
+  if (last_term != -1) fn(term, row.data());
+  return Status::Ok();
 }
 
 Status Store::FindDocument(const std::string& digest,

@@ -15,6 +15,8 @@
 #include <memory>
 #include <optional>
 #include <string>
+#include <string_view>
+#include <unordered_map>
 #include <vector>
 
 #include "classify/model_counts.h"
@@ -370,6 +372,14 @@ class Store {
   // already there. A document out of the model enters it in the new queue.
   Status MoveInTransaction(const std::vector<std::pair<std::string, int64_t>>& moves,
                            std::vector<std::string>* from, VersionDelta* delta);
+  // The parts of LoadModelCounts, inside the caller's transaction: the
+  // queues that are not retired, by name, with each queue id's index; then
+  // fn(term, row) for every term with counts, in byte order of the terms,
+  // row[column[queue id]] = N(q, w) (nq columns, zero where none).
+  Status LoadModelQueues(std::vector<QueueCounts>* queues,
+                         std::unordered_map<int64_t, size_t>* column);
+  Status ScanCountRows(const std::unordered_map<int64_t, size_t>& column, size_t nq,
+                       const std::function<void(std::string_view, const int64_t*)>& fn);
   // Records the change just made as a new version, inside the caller's
   // write transaction (schema.h: versions, changes, snapshots). Computes
   // the fingerprint of the model as it now is. *made (optional) gets it.

@@ -103,9 +103,20 @@ Status Store::EraseFromSnapshotsInTransaction(const std::vector<int64_t>& ids) {
 Status Store::RecordVersionInTransaction(const std::string& command, const ChangeInfo& change,
                                          const VersionDelta& delta, VersionInfo* made) {
   sqlite3* db = db_.get();
-  ModelCounts counts;
-  Status s = LoadModelCounts(&counts);
-  if (!s.ok()) return s;
+  // The fingerprint is hashed as the counts are read, without holding them.
+  std::string fingerprint;
+  {
+    std::vector<QueueCounts> model_queues;
+    std::unordered_map<int64_t, size_t> column;
+    Status s = LoadModelQueues(&model_queues, &column);
+    if (!s.ok()) return s;
+    ModelFingerprinter hash(settings_, model_queues);
+    s = ScanCountRows(column, model_queues.size(),
+                      [&](std::string_view term, const int64_t* row) { hash.AddRow(term, row); });
+    if (!s.ok()) return s;
+    fingerprint = hash.Hex();
+  }
+  Status s;
   std::vector<VersionQueue> queues;
   {
     sql::Statement st(db, "SELECT id, name, set_prior, retired IS NOT NULL FROM queues ORDER BY id");
@@ -126,7 +137,7 @@ Status Store::RecordVersionInTransaction(const std::string& command, const Chang
   v.added = delta.added;
   v.moved = delta.moved;
   v.removed = delta.removed;
-  v.fingerprint = ModelFingerprint(settings_, counts);
+  v.fingerprint = std::move(fingerprint);
   v.details = delta.details;
   sql::Statement add(db,
                      "INSERT INTO versions(time, command, by, added, moved, removed, "
