@@ -214,6 +214,24 @@ Status Store::LoadModelCounts(ModelCounts* out, VersionInfo* version) {
   return version ? CurrentVersion(version) : Status::Ok();
 }
 
+Status Store::LoadQueueCounts(ModelCounts* out) {
+  *out = ModelCounts();
+  sql::Statement st(db_.get(),
+                    "SELECT name, documents, tokens, set_prior FROM queues "
+                    "WHERE retired IS NULL ORDER BY name");
+  if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+  int rc;
+  while ((rc = st.Step()) == SQLITE_ROW) {
+    QueueCounts q;
+    q.name = st.ColumnText(0);
+    q.documents = st.ColumnInt(1);
+    q.tokens = st.ColumnInt(2);
+    if (!st.ColumnIsNull(3)) q.set_prior = st.ColumnDouble(3);
+    out->queues.push_back(std::move(q));
+  }
+  return rc == SQLITE_DONE ? Status::Ok() : sql::ErrorStatus(db_.get(), path_);
+}
+
 Status Store::FindDocument(const std::string& digest,
                            std::optional<LedgerEntry>* out) {
   out->reset();
@@ -279,6 +297,13 @@ Status Store::Learn(const LearnBatch& batch, const ChangeInfo& change,
   if (!tx.status().ok()) {
     return Status::Busy(path_ + ": " + tx.status().message());
   }
+  // The running sum is this change's only (a failed change must not leave
+  // its sum to the next one).
+  sum_state_ = SumState::kFresh;
+  struct SumReset {
+    SumState* state;
+    ~SumReset() { *state = SumState::kFresh; }
+  } sum_reset{&sum_state_};
   VersionDelta delta;
   const std::string now = change.now.empty() ? StoreClockNow() : change.now;
   Status s = LearnInTransaction(batch, now, result, &delta);
@@ -433,7 +458,12 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
     sql::Statement add(db, "INSERT INTO terms(text) VALUES(?)");
     sql::Statement upsert(db,
                           "INSERT INTO counts(term_id, queue_id, n) VALUES(?, ?, ?) "
-                          "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n");
+                          "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n "
+                          "RETURNING n");
+    if (sum_state_ == SumState::kFresh) {
+      if (Status s = StartRunningSumInTransaction(); !s.ok()) return fail(s);
+    }
+    const bool track = sum_state_ == SumState::kRunning;
     if (!find.ok() || !add.ok() || !upsert.ok()) {
       return Status::IoError(path_ + ": " + find.error() + add.error() + upsert.error());
     }
@@ -453,8 +483,15 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
         find.Reset();
         last_rank = sum.term_rank;
       }
-      Status s = upsert.Bind(1, term_id).Bind(2, queue_ids[sum.queue]).Bind(3, sum.n).Run();
+      upsert.Bind(1, term_id).Bind(2, queue_ids[sum.queue]).Bind(3, sum.n);
+      if (upsert.Step() != SQLITE_ROW) return fail(sql::ErrorStatus(db, path_));
+      const int64_t after = upsert.ColumnInt(0);
+      Status s = upsert.Run();  // finishes the statement (RETURNING) and resets it
       if (!s.ok()) return fail(s);
+      if (track) {
+        running_sum_.Change(batch.term(by_text[sum.term_rank]), queue_names[sum.queue],
+                            after - sum.n, after);
+      }
     }
   }
 

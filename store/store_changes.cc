@@ -185,6 +185,7 @@ Status Store::MoveInTransaction(
   from->clear();
   if (moves.empty()) return Status::Ok();
   sqlite3* db = db_.get();
+  sum_state_ = SumState::kInvalid;  // CountEditor does not keep the sum
   CountEditor edit(db, path_);
   Status s = edit.status();
   if (!s.ok()) return s;
@@ -280,6 +281,11 @@ Status Store::Correct(const std::vector<CorrectMove>& moves,
                       const LearnBatch& batch, const ChangeInfo& change,
                       CorrectResult* result) {
   *result = CorrectResult();
+  sum_state_ = SumState::kFresh;
+  struct SumReset {
+    SumState* state;
+    ~SumReset() { *state = SumState::kFresh; }
+  } sum_reset{&sum_state_};
   sql::Transaction tx(db_.get());
   if (!tx.status().ok())
     return Status::Busy(path_ + ": " + tx.status().message());
