@@ -74,14 +74,32 @@ bool OpenStoreOrReport(std::string_view command, const std::string& db,
 }
 
 bool LoadModelOrReport(std::string_view command, Store* store, std::optional<Model>* model) {
+  LoadedModel loaded;
+  if (!LoadModelOrReport(command, store, 0, &loaded)) return false;
+  *model = std::move(loaded.model);
+  return true;
+}
+
+bool LoadModelOrReport(std::string_view command, Store* store, int64_t at_version,
+                       LoadedModel* out) {
   ModelCounts counts;
-  if (Status s = store->LoadModelCounts(&counts); !s.ok()) {
+  Status s;
+  if (at_version > 0) {
+    s = store->ModelAtVersion(at_version, &out->version, &out->settings, &counts);
+  } else {
+    s = store->LoadModelCounts(&counts, &out->version);
+    out->settings = store->settings();
+  }
+  if (!s.ok()) {
     Report(command, s.message());
     return false;
   }
-  *model = Model::Build(counts, store->settings().model);
-  if ((*model)->queue_count() == 0) {
-    Report(command, store->path() + ": has learned no documents yet; run 'chute learn' first");
+  out->model = Model::Build(counts, out->settings.model);
+  if (out->model->queue_count() == 0) {
+    Report(command, store->path() + (at_version > 0
+                                         ? ": version " + std::to_string(at_version) +
+                                               " had learned no documents"
+                                         : ": has learned no documents yet; run 'chute learn' first"));
     return false;
   }
   return true;

@@ -9,6 +9,7 @@
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
+#include <regex>
 #include <stdexcept>
 
 namespace chute::testing {
@@ -101,6 +102,11 @@ std::string TempDir::Write(const std::string& rel, const std::string& bytes) con
   std::filesystem::create_directories(p.parent_path());
   std::ofstream(p, std::ios::binary) << bytes;
   return p.string();
+}
+
+std::string WithoutModelVersion(const std::string& jsonl) {
+  static const std::regex kField(R"("model_version":[0-9]+,)");
+  return std::regex_replace(jsonl, kField, "");
 }
 
 std::vector<std::string> Lines(const std::string& text) {
