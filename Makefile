@@ -64,10 +64,11 @@ bench: bench-deps
 	tests/bench/run.sh $(BUILD_DIR)
 
 # The reliability tests of make test (label "reliability") at their full
-# counts: 50 random kills.
+# counts: 50 random kills; 120 corrections and 120 learns under four routers.
 soak: deps configure
 	cmake --build $(BUILD_DIR) -j $(JOBS) --target chute
 	/usr/bin/python3 tests/e2e/crash_test.py $(BUILD_DIR)/chute --full
+	/usr/bin/python3 tests/e2e/concurrency_test.py $(BUILD_DIR)/chute --full
 
 clean:
 	rm -rf $(BUILD_DIR)

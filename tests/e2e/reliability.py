@@ -9,7 +9,6 @@ import json
 import os
 import random
 import shutil
-import sqlite3
 import subprocess
 
 QUEUES = ("berths", "billing", "customs", "marina")
@@ -99,17 +98,9 @@ class Chute:
 
     def versions(self, db=None):
         """[(version, fingerprint)], oldest first, as `chute versions` lists them."""
-        p = self.run("versions", "--format", "jsonl", db=db, check=False)
-        if p.returncode == 0:
-            return [(v["version"], v["fingerprint"])
-                    for v in map(json.loads, p.stdout.splitlines())]
-        # A binary without the versions command: its table, read directly.
-        con = sqlite3.connect(os.path.join(self.cwd, db or self.db))
-        try:
-            return list(con.execute(
-                "SELECT id, fingerprint FROM versions ORDER BY id"))
-        finally:
-            con.close()
+        p = self.run("versions", "--format", "jsonl", db=db)
+        return [(v["version"], v["fingerprint"])
+                for v in map(json.loads, p.stdout.splitlines())]
 
     def fingerprint(self, db=None):
         """The fingerprint of the current (newest) version."""
@@ -126,16 +117,6 @@ class Chute:
             if os.path.exists(src):
                 shutil.copyfile(src, dst)
         return to_db
-
-
-def learned_sources(db_path):
-    """The source paths of the documents in the model, read with SQLite."""
-    con = sqlite3.connect(db_path)
-    try:
-        return [r[0] for r in con.execute(
-            "SELECT source FROM ledger WHERE in_model = 1 ORDER BY id")]
-    finally:
-        con.close()
 
 
 def rng_for(seed):
