@@ -6,9 +6,11 @@
 Four processes loop `chute route inbox --format jsonl` over a folder while
 two writers change the model: one applies corrections (`chute correct`,
 two files that move the same documents back and forth, in turn), the other
-learns batches of new documents (`chute learn --csv`). Asserted:
+learns batches of new documents (`chute learn --csv`); a fifth process
+loops `chute check`. Asserted:
 - no process fails: every exit status is 0 and no standard error mentions
-  a locked or busy database (nothing is printed on it at all);
+  a locked or busy database (nothing is printed on it at all); every check
+  passes while the writers write;
 - every decision carries a `model_version` and a `fingerprint`, the
   fingerprint is the one `chute versions` lists for that version, and one
   run of route decides all its documents with one version;
@@ -92,7 +94,14 @@ def main():
         def learner(k):
             return ("learn", "--csv", "batch%d.csv" % k, "--by", "concurrency-test")
 
+        check_runs = []
+
+        def checker():
+            while not writers_done.is_set():
+                check_runs.append(chute.run("check", check=False))
+
         routers = [threading.Thread(target=router, args=(i,)) for i in range(ROUTERS)]
+        routers.append(threading.Thread(target=checker))
         writers = [threading.Thread(target=writer, args=(corrector,)),
                    threading.Thread(target=writer, args=(learner,))]
         for t in routers + writers:
@@ -103,7 +112,7 @@ def main():
         for t in routers:
             t.join()
 
-        for p in writer_runs:
+        for p in writer_runs + check_runs:
             expect(p.returncode == 0 and p.stderr == "",
                    "%s: exit %d: %s" % (" ".join(p.args[1:]), p.returncode, p.stderr))
         versions = dict(chute.versions())
@@ -150,10 +159,10 @@ def main():
                 expect(f not in again or again[f].get("fingerprint") == versions[v],
                        "route --at-version %d prints fingerprint %s, not %s" % (
                            v, again.get(f, {}).get("fingerprint"), versions[v]))
-        print("%d routing runs by %d routers during %d corrections and %d "
-              "learns; %d versions seen, %d decisions replayed with --at-version"
-              % (runs, ROUTERS, corrections, corrections, len(by_version),
-                 replayed), flush=True)
+        print("%d routing runs by %d routers and %d checks during %d corrections "
+              "and %d learns; %d versions seen, %d decisions replayed with "
+              "--at-version" % (runs, ROUTERS, len(check_runs), corrections, corrections,
+                                len(by_version), replayed), flush=True)
     return checks.exit_status("all concurrency checks held")
 
 
