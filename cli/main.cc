@@ -26,6 +26,8 @@ constexpr chute::Command kCommands[] = {
      chute::SetupCorrect},
     {"forget", "unlearn documents exactly and erase what the store kept of them",
      chute::SetupForget},
+    {"purge", "erase the kept text and source paths of documents learned before a time",
+     chute::SetupPurge},
     {"versions", "list the model's versions: every committed change, with its fingerprint",
      chute::SetupVersions},
     {"rollback", "make the model an earlier version's again (itself a new version)",

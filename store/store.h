@@ -36,6 +36,7 @@ struct QueueInfo {
   int64_t tokens = 0;          // N(q)
   int64_t distinct_terms = 0;  // terms with N(q, w) > 0
   std::optional<double> set_prior;
+  bool retired = false;  // routes nothing; its documents are out of the model
 };
 
 struct LedgerEntry {
@@ -173,6 +174,37 @@ struct ForgetResult {
   bool checkpointed = false;
 };
 
+// A ledger entry with its kept text, for a rebuild that counts documents
+// again.
+struct LedgerText {
+  int64_t ledger_id = 0;
+  std::string digest;
+  std::string queue;
+  bool in_model = true;  // counted in the current model
+  std::string learned_at;
+  // The text chute tokenized when it learned the document; nullopt when
+  // the store keeps no text or the entry was purged.
+  std::optional<std::string> text;
+};
+
+struct PurgeResult {
+  // Ledger entries learned before the cutoff that still held a text or a
+  // source path, and so were purged (or, in a dry run, would be); the texts
+  // and source paths among them. In queue order of name.
+  struct Queue {
+    std::string name;
+    int64_t entries = 0;
+    int64_t texts = 0;
+    int64_t sources = 0;
+  };
+  std::vector<Queue> queues;
+  int64_t entries = 0;
+  int64_t texts = 0;
+  int64_t sources = 0;
+  // As ForgetResult::checkpointed; true in a dry run.
+  bool checkpointed = false;
+};
+
 class Store {
  public:
   // Creates a new store at path with the given settings. Fails when the file
@@ -281,11 +313,46 @@ class Store {
   Status Forget(const std::vector<std::string>& digests, const ChangeInfo& change,
                 ForgetResult* result);
 
+  // Queue changes, each one transaction and a version ("queues").
+  // AddQueue: a new, empty queue (routed once it has documents), or a
+  // retired one brought back. Fails when an active queue has the name.
+  Status AddQueue(const std::string& name, const ChangeInfo& change);
+  // RenameQueue: the same queue (id, documents, history) under a new name.
+  // Fails when `to` is taken (by an active or retired queue) or invalid.
+  Status RenameQueue(const std::string& from, const std::string& to, const ChangeInfo& change);
+  // MergeQueue: from's documents and counts are added to into's (N(into, w)
+  // += N(from, w)); from is retired. *moved: documents moved.
+  Status MergeQueue(const std::string& from, const std::string& into, const ChangeInfo& change,
+                    int64_t* moved);
+  // RetireQueue: the queue's counts leave the model (terms no other queue
+  // has leave the vocabulary); its documents stay in the ledger, out of the
+  // model. It routes nothing; AddQueue or learning under its name brings
+  // it back, empty. *removed: documents taken out of the model.
+  Status RetireQueue(const std::string& name, const ChangeInfo& change, int64_t* removed);
+
   // Sets (or with nullopt clears) a queue's hand-set prior.
   // REQUIRES: 0 < prior < 1. Fails when the queue does not exist or the hand-
   // set priors would sum to more than 1.
   Status SetPrior(const std::string& queue, std::optional<double> prior,
                   const ChangeInfo& change = {});
+
+  // Calls fn for every ledger entry, in ledger id order, with its kept text
+  // unpacked, inside one read transaction (a consistent view). Stops at the
+  // first Status fn returns that is not Ok and returns it. Fails with
+  // kCorruption, naming the digest, on a kept text that does not unpack.
+  // REQUIRES: fn does not write through this Store (its snapshot is open).
+  // Cost: one text unpacked at a time; memory of the largest text.
+  Status ReadLedgerTexts(const std::function<Status(const LedgerText&)>& fn);
+
+  // Erases the kept text and the source path (both set to NULL) of every
+  // ledger entry learned before `before`; counts, digests and queues stay,
+  // so the model and its version do not change. Runs as Forget does: with
+  // PRAGMA secure_delete = ON, in one transaction, then a checkpoint that
+  // empties the write-ahead log. With dry_run, only counts what would be
+  // purged. REQUIRES: before is RFC 3339 UTC as chute writes it,
+  // YYYY-MM-DDTHH:MM:SSZ (then text order is time order); otherwise fails
+  // with kInvalidArgument.
+  Status Purge(const std::string& before, bool dry_run, PurgeResult* result);
 
  private:
   Store(std::string path, sql::DbHandle db);

@@ -142,5 +142,51 @@ TEST_F(VersionsTest, UnknownVersionIsAOneLineError) {
   EXPECT_NE(empty.err.find("version 1 had learned no documents"), std::string::npos) << empty.err;
 }
 
+TEST_F(VersionsTest, QueueChangesFromTheCommandLine) {
+  RunResult r = Chute({"queues", "--db", "s.db", "--rename", "billing", "harbour-dues", "--by", "lead"});
+  ASSERT_EQ(r.exit_code, 0) << r.err;
+  EXPECT_EQ(Lines(r.out).at(0), "renamed queue 'billing' to 'harbour-dues' (by lead)");
+  EXPECT_NE(Route().find("\"queue\":\"harbour-dues\""), std::string::npos);
+  r = Chute({"queues", "--db", "s.db", "--merge", "marina", "--into", "berths", "--format", "jsonl"});
+  ASSERT_EQ(r.exit_code, 0) << r.err;
+  bool marina_retired = false;
+  for (const std::string& line : Lines(r.out)) {
+    json j = json::parse(line);
+    if (j["queue"] == "marina") marina_retired = j["retired"].get<bool>() && j["documents"] == 0;
+  }
+  EXPECT_TRUE(marina_retired) << r.out;
+  r = Chute({"queues", "--db", "s.db", "--retire", "harbour-dues"});
+  ASSERT_EQ(r.exit_code, 0) << r.err;
+  EXPECT_EQ(Lines(r.out).at(0).rfind("retired queue 'harbour-dues': 2 documents out of the model", 0),
+            0u)
+      << r.out;
+  for (const std::string& line : Lines(Route())) EXPECT_EQ(json::parse(line)["queue"], "berths");
+  r = Chute({"queues", "--db", "s.db", "--add", "hazardous-cargo"});
+  ASSERT_EQ(r.exit_code, 0) << r.err;
+  std::vector<json> v = Versions();
+  ASSERT_EQ(v.size(), 6u);
+  for (size_t i = 2; i < v.size(); ++i) EXPECT_EQ(v[i]["command"], "queues");
+  EXPECT_EQ(v[3]["moved"], 1);
+  EXPECT_EQ(v[4]["removed"], 2);
+  EXPECT_EQ(Chute({"check", "--db", "s.db"}).exit_code, 0);
+  // Undo it all.
+  ASSERT_EQ(Chute({"rollback", "--db", "s.db", "2"}).exit_code, 0);
+  EXPECT_NE(Route().find("\"queue\":\"billing\""), std::string::npos);
+  EXPECT_EQ(Chute({"check", "--db", "s.db"}).exit_code, 0);
+}
+
+TEST_F(VersionsTest, QueueChangeErrors) {
+  EXPECT_EQ(Chute({"queues", "--db", "s.db", "--merge", "marina"}).exit_code, 2);
+  EXPECT_EQ(Chute({"queues", "--db", "s.db", "--into", "marina"}).exit_code, 2);
+  EXPECT_EQ(Chute({"queues", "--db", "s.db", "--retire", "marina", "--add", "x"}).exit_code, 2);
+  RunResult r = Chute({"queues", "--db", "s.db", "--retire", "nowhere"});
+  EXPECT_EQ(r.exit_code, 1);
+  EXPECT_EQ(Lines(r.err).size(), 1u);
+  EXPECT_NE(r.err.find("queue 'nowhere' does not exist; nothing was changed"), std::string::npos)
+      << r.err;
+  EXPECT_EQ(Chute({"queues", "--db", "s.db", "--rename", "marina", "_mine"}).exit_code, 1);
+  EXPECT_EQ(Versions().size(), 2u);  // nothing was recorded
+}
+
 }  // namespace
 }  // namespace chute::testing
