@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""Crash safety of learn, correct and forget, end to end.
+"""Crash safety of learn, correct, forget and rollback, end to end.
 
     crash_test.py path/to/chute [--full] [--seed N]
 
@@ -11,8 +11,8 @@
    after the commit). After forget.before_checkpoint, once the next command
    has opened and closed the store, the forgotten document's planted word
    must be in none of the store's files.
-2. Random SIGKILLs: a seeded sequence of learn, correct and forget runs on a
-   generated corpus, each killed after a random delay within its expected
+2. Random SIGKILLs: a seeded sequence of learn, correct, forget and rollback
+   runs on a generated corpus, each killed after a random delay within its expected
    duration (measured by running it first on a copy of the store). After
    each kill `chute check` passes and the fingerprint equals the one before
    or the one after the change. 10 runs, 50 with --full (make soak). The
@@ -129,7 +129,7 @@ def random_kills(binary, seed, runs):
         landed = {"before": 0, "midway": 0, "after": 0, "finished": 0}
         wal = os.path.join(tmp, "s.db-wal")
         for run in range(runs):
-            op = rng.choice(("learn", "correct", "forget"))
+            op = rng.choice(("learn", "correct", "forget", "rollback"))
             sample = rng.sample(pool, rng.randint(20, 120))
             if op == "learn":
                 rl.write_csv(os.path.join(tmp, "batch.csv"), ("path", "queue"), sample)
@@ -138,8 +138,10 @@ def random_kills(binary, seed, runs):
                 rl.write_csv(os.path.join(tmp, "batch.csv"), ("document", "queue"),
                              [(p, rng.choice(rl.QUEUES)) for p, _ in sample])
                 args = ("batch.csv",)
-            else:
+            elif op == "forget":
                 args = tuple(p for p, _ in sample[:rng.randint(1, 15)])
+            else:
+                args = (str(rng.choice(chute.versions())[0]),)
             before = chute.fingerprint()
             ref_db = chute.copy_store("reference.db")
             started = time.monotonic()
