@@ -393,6 +393,7 @@ Status Store::Rollback(int64_t v, const ChangeInfo& change,
                               "{\"rollback_to\":" + std::to_string(v) + "}",
                               result);
   if (!s.ok()) return s;
+  FaultPoint("rollback.before_commit");
   s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();

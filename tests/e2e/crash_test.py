@@ -95,6 +95,8 @@ def fault_points(binary, seed):
         forget = [path for path, _ in later[::4]]
         case("forget.before_commit", "forget", *forget)
 
+        case("rollback.before_commit", "rollback", "2")
+
         store_files = [os.path.join(tmp, "s.db" + s) for s in ("", "-wal", "-shm")]
 
         def holds_planted():
