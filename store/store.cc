@@ -281,7 +281,8 @@ Status Store::Learn(const LearnBatch& batch, const ChangeInfo& change,
     return Status::Busy(path_ + ": " + tx.status().message());
   }
   VersionDelta delta;
-  Status s = LearnInTransaction(batch, change.now, result, &delta);
+  const std::string now = change.now.empty() ? StoreClockNow() : change.now;
+  Status s = LearnInTransaction(batch, now, result, &delta);
   if (!s.ok()) return s;
   if (!delta.changes.empty()) {
     s = RecordVersionInTransaction("learn", change, delta);

@@ -79,6 +79,10 @@ struct LearnResult {
   int64_t new_terms = 0;  // terms the vocabulary did not have
 };
 
+// The store's clock: now, RFC 3339 UTC, to the second. Used when a
+// ChangeInfo leaves `now` empty.
+std::string StoreClockNow();
+
 // Who makes a change, and when; recorded with the version the change makes.
 struct ChangeInfo {
   std::string now;  // RFC 3339 UTC; empty: the store's clock

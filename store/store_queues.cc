@@ -58,7 +58,7 @@ Status Store::AddQueue(const std::string& name, const ChangeInfo& change) {
     if (s = ValidateQueueName(name); !s.ok()) return s;
     sql::Statement add(db, "INSERT INTO queues(name, created) VALUES(?, ?)");
     if (!add.ok()) return Status::IoError(path_ + ": " + add.error());
-    s = add.Bind(1, name).Bind(2, change.now.empty() ? std::string("unknown") : change.now).Run();
+    s = add.Bind(1, name).Bind(2, change.now.empty() ? StoreClockNow() : change.now).Run();
   }
   if (s.ok()) s = RecordVersionInTransaction("queues", change, VersionDelta());
   if (!s.ok()) return s;
@@ -133,7 +133,7 @@ Status Store::MergeQueue(const std::string& from, const std::string& into,
     sql::Statement st(db,
                       "UPDATE queues SET documents = 0, tokens = 0, set_prior = NULL, retired = ? "
                       "WHERE id = ?");
-    s = st.Bind(1, change.now.empty() ? std::string("unknown") : change.now).Bind(2, f.id).Run();
+    s = st.Bind(1, change.now.empty() ? StoreClockNow() : change.now).Bind(2, f.id).Run();
   }
   if (s.ok()) s = RecordVersionInTransaction("queues", change, delta);
   if (!s.ok()) return s;
@@ -173,7 +173,7 @@ Status Store::RetireQueue(const std::string& name, const ChangeInfo& change, int
     sql::Statement st(db,
                       "UPDATE queues SET documents = 0, tokens = 0, set_prior = NULL, retired = ? "
                       "WHERE id = ?");
-    s = st.Bind(1, change.now.empty() ? std::string("unknown") : change.now).Bind(2, q.id).Run();
+    s = st.Bind(1, change.now.empty() ? StoreClockNow() : change.now).Bind(2, q.id).Run();
   }
   if (s.ok()) s = RecordVersionInTransaction("queues", change, delta);
   if (!s.ok()) return s;
