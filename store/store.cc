@@ -11,6 +11,7 @@
 #include <unordered_map>
 #include <unordered_set>
 
+#include "store/fault_point.h"
 #include "store/queue_name.h"
 #include "store/schema.h"
 #include "store/store_file.h"
@@ -312,6 +313,7 @@ Status Store::Learn(const LearnBatch& batch, const ChangeInfo& change,
     s = RecordVersionInTransaction("learn", change, delta);
     if (!s.ok()) return s;
   }
+  FaultPoint("learn.before_commit");
   s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();

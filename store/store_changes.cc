@@ -10,6 +10,7 @@
 #include <utility>
 #include <vector>
 
+#include "store/fault_point.h"
 #include "store/store.h"
 #include "store/term_counts_codec.h"
 
@@ -315,6 +316,7 @@ Status Store::Correct(const std::vector<CorrectMove>& moves,
     Status s = RecordVersionInTransaction("correct", change, delta);
     if (!s.ok()) return s;
   }
+  FaultPoint("correct.before_commit");
   Status s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();
@@ -364,9 +366,11 @@ Status Store::Forget(const std::vector<std::string>& digests,
     // The version records how many documents left, never which.
     s = RecordVersionInTransaction("forget", change, delta);
     if (!s.ok()) return s;
+    FaultPoint("forget.before_commit");
     s = tx.Commit();
     if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   }
+  FaultPoint("forget.before_checkpoint");
   // Empty the write-ahead log, which otherwise keeps the pages as they were
   // before.
   result->checkpointed = sql::CheckpointTruncate(db);
@@ -397,6 +401,7 @@ Status Store::Rollback(int64_t v, const ChangeInfo& change,
                               "{\"rollback_to\":" + std::to_string(v) + "}",
                               result);
   if (!s.ok()) return s;
+  FaultPoint("rollback.before_commit");
   s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();
