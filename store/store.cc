@@ -5,6 +5,7 @@
 #include <unistd.h>
 
 #include <algorithm>
+#include <cstdio>
 #include <cerrno>
 #include <charconv>
 #include <cstring>
@@ -48,40 +49,65 @@ Store::Store(std::string path, sql::DbHandle db)
 
 Status Store::Create(const std::string& path, const StoreSettings& settings,
                      std::unique_ptr<Store>* out, const ChangeInfo& change) {
-  // Create the file ourselves so that it is 0600 from its first instant;
-  // SQLite gives its -wal and -shm files the same mode.
-  int fd = ::open(path.c_str(), O_CREAT | O_EXCL | O_WRONLY | O_CLOEXEC, 0600);
-  if (fd < 0) {
-    if (errno == EEXIST) {
-      return Status::InvalidArgument(path + ": already exists; chute init never overwrites a store");
-    }
-    return Status::IoError(path + ": cannot create: " + std::strerror(errno));
+  out->reset();
+  struct stat st {};
+  if (::lstat(path.c_str(), &st) == 0) {
+    return Status::InvalidArgument(path + ": already exists; chute init never overwrites a store");
   }
+  // The store is made whole under a temporary name in the same folder and
+  // then given its name in one step that never replaces a file, so that a
+  // crash leaves either no store or a complete one (at worst a stray
+  // .chute-init-* file). mkstemp makes the file 0600 from its first
+  // instant; SQLite gives its -wal and -shm files the same mode.
+  const size_t slash = path.rfind('/');
+  const std::string folder = slash == std::string::npos ? "." : path.substr(0, slash + 1);
+  std::string tmp = (slash == std::string::npos ? std::string() : folder) + ".chute-init-XXXXXX";
+  int fd = ::mkstemp(tmp.data());
+  if (fd < 0) return Status::IoError(path + ": cannot create: " + std::strerror(errno));
   ::close(fd);
-  auto fail = [&](Status s) {
-    out->reset();
-    for (const char* suffix : {"", "-wal", "-shm", "-journal"}) {
-      ::unlink((path + suffix).c_str());
-    }
-    return s;
+  auto remove_tmp = [&] {
+    for (const char* suffix : {"", "-wal", "-shm", "-journal"}) ::unlink((tmp + suffix).c_str());
   };
-  sql::DbHandle db;
-  Status s = OpenNewDb(path, &db);
-  if (s.ok()) s = sql::Exec(db.get(), "PRAGMA journal_mode = WAL");
-  if (s.ok()) s = ConfigureStoreConnection(db.get());
-  if (s.ok()) s = Migrate(db.get(), SchemaVersion());
-  if (!s.ok()) return fail(Status::IoError(path + ": " + s.message()));
-  std::unique_ptr<Store> store(new Store(path, std::move(db)));
+  Status s;
   {
-    sql::Transaction tx(store->db_.get());
-    s = tx.status();
-    if (s.ok()) s = store->SaveSettingsInTransaction(settings);
-    if (s.ok()) s = store->RecordVersionInTransaction("init", change, VersionDelta());
-    if (s.ok()) s = tx.Commit();
+    sql::DbHandle db;
+    s = OpenNewDb(tmp, &db);
+    if (s.ok()) s = sql::Exec(db.get(), "PRAGMA journal_mode = WAL");
+    if (s.ok()) s = ConfigureStoreConnection(db.get());
+    if (s.ok()) s = Migrate(db.get(), SchemaVersion());
+    if (s.ok()) {
+      Store store(tmp, std::move(db));
+      sql::Transaction tx(store.db_.get());
+      s = tx.status();
+      if (s.ok()) s = store.SaveSettingsInTransaction(settings);
+      if (s.ok()) s = store.RecordVersionInTransaction("init", change, VersionDelta());
+      if (s.ok()) s = tx.Commit();
+      // Closing the only connection checkpoints the write-ahead log into
+      // the file and deletes it (sqlite.org/wal.html), so the file alone is
+      // the store.
+    }
   }
-  if (!s.ok()) return fail(Status::IoError(path + ": " + s.message()));
-  *out = std::move(store);
-  return Status::Ok();
+  if (!s.ok()) {
+    remove_tmp();
+    return Status::IoError(path + ": " + s.message());
+  }
+  FaultPoint("init.before_name");
+  if (::renameat2(AT_FDCWD, tmp.c_str(), AT_FDCWD, path.c_str(), RENAME_NOREPLACE) != 0) {
+    int err = errno;
+    if (err == EINVAL || err == ENOSYS) {
+      // A filesystem without RENAME_NOREPLACE: a hard link never replaces.
+      err = ::link(tmp.c_str(), path.c_str()) == 0 ? 0 : errno;
+    }
+    if (err != 0) {
+      remove_tmp();
+      if (err == EEXIST) {
+        return Status::InvalidArgument(path + ": already exists; chute init never overwrites a store");
+      }
+      return Status::IoError(path + ": cannot create: " + std::strerror(err));
+    }
+  }
+  remove_tmp();  // after a link, the temporary name; after a rename, nothing
+  return Open(path, out);
 }
 
 Status Store::Open(const std::string& path, std::unique_ptr<Store>* out) {

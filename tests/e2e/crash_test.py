@@ -119,6 +119,22 @@ def fault_points(binary, seed):
                "the next command closed the store" % holds_planted())
 
 
+def init_fault(binary):
+    """A crash inside init leaves no store (a stray temporary file at most),
+    never a store without settings: init then simply runs again."""
+    with tempfile.TemporaryDirectory(prefix="chute-init-") as tmp:
+        chute = rl.Chute(binary, tmp)
+        p = chute.run("init", fault="init.before_name", check=False)
+        expect(p.returncode == FAULT_EXIT, "init.before_name: exit %d: %s" % (
+            p.returncode, p.stderr))
+        expect(not os.path.exists(os.path.join(tmp, "s.db")),
+               "init.before_name: the store exists before init finished")
+        chute.run("init")
+        check_passes(chute, "init.before_name")
+        expect(len(chute.versions()) == 1, "init after a crash: one version")
+        print("init.before_name: stopped, no store left; init ran again", flush=True)
+
+
 def random_kills(binary, seed, runs):
     with tempfile.TemporaryDirectory(prefix="chute-kill-") as tmp:
         rng = rl.rng_for(seed)
@@ -184,6 +200,7 @@ def random_kills(binary, seed, runs):
 def main():
     a = rl.parse_arguments(4086, "the soak counts (50 random kills, not 10)")
     fault_points(a.chute, a.seed)
+    init_fault(a.chute)
     random_kills(a.chute, a.seed + 1, 50 if a.full else 10)
     return checks.exit_status("all crash-safety checks held")
 
