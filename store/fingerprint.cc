@@ -10,9 +10,11 @@
 
 namespace chute {
 
+namespace {
+
 // Streams text into SHA-256 through a buffer, so that millions of short
 // lines cost one digest update per 64 KiB.
-class ModelFingerprinter::Hasher {
+class Hasher {
  public:
   Hasher() : ctx_(EVP_MD_CTX_new()) { EVP_DigestInit_ex(ctx_.get(), EVP_sha256(), nullptr); }
 
@@ -64,13 +66,123 @@ class ModelFingerprinter::Hasher {
   std::string buf_;
 };
 
-ModelFingerprinter::ModelFingerprinter(const StoreSettings& settings,
-                                       const std::vector<QueueCounts>& queues)
-    : hasher_(std::make_unique<Hasher>()) {
-  Hasher& h = *hasher_;
+// One reusable SHA-256 context for row digests (row digests are many and
+// short: a context per row would cost more than the hashing).
+class RowHasher {
+ public:
+  RowHasher() : ctx_(EVP_MD_CTX_new()) {}
+  ~RowHasher() { EVP_MD_CTX_free(ctx_); }
+  RowHasher(const RowHasher&) = delete;
+  RowHasher& operator=(const RowHasher&) = delete;
+
+  void Digest(std::string_view term, std::string_view queue, int64_t n, unsigned char out[32]) {
+    buf_.clear();
+    buf_ += "t ";
+    AppendInt(static_cast<int64_t>(term.size()));
+    buf_ += ':';
+    buf_.append(term);
+    buf_ += ' ';
+    AppendInt(static_cast<int64_t>(queue.size()));
+    buf_ += ':';
+    buf_.append(queue);
+    buf_ += ' ';
+    AppendInt(n);
+    unsigned int len = 0;
+    EVP_DigestInit_ex(ctx_, EVP_sha256(), nullptr);
+    EVP_DigestUpdate(ctx_, buf_.data(), buf_.size());
+    EVP_DigestFinal_ex(ctx_, out, &len);
+  }
+
+ private:
+  void AppendInt(int64_t v) {
+    char tmp[24];
+    auto r = std::to_chars(tmp, tmp + sizeof tmp, v);
+    buf_.append(tmp, static_cast<size_t>(r.ptr - tmp));
+  }
+  EVP_MD_CTX* ctx_;
+  std::string buf_;
+};
+
+RowHasher& ThreadRowHasher() {
+  thread_local RowHasher hasher;
+  return hasher;
+}
+
+}  // namespace
+
+void CountsSum::Add(std::string_view term, std::string_view queue, int64_t n, int sign) {
+  unsigned char md[32];
+  ThreadRowHasher().Digest(term, queue, n, md);
+  // The digest's bytes as a big-endian 256-bit number, into limbs.
+  std::array<uint64_t, 4> d{};
+  for (int limb = 0; limb < 4; ++limb) {
+    uint64_t v = 0;
+    for (int b = 0; b < 8; ++b) v = (v << 8) | md[(3 - limb) * 8 + b];
+    d[static_cast<size_t>(limb)] = v;
+  }
+  if (sign >= 0) {
+    uint64_t carry = 0;
+    for (size_t i = 0; i < 4; ++i) {
+      uint64_t t = limbs_[i] + d[i];
+      uint64_t c1 = t < d[i] ? 1 : 0;
+      limbs_[i] = t + carry;
+      carry = c1 | (limbs_[i] < t ? 1 : 0);
+    }
+  } else {
+    uint64_t borrow = 0;
+    for (size_t i = 0; i < 4; ++i) {
+      uint64_t a = limbs_[i];
+      uint64_t r = a - d[i] - borrow;
+      borrow = (a < d[i] || (a == d[i] && borrow)) ? 1 : 0;
+      limbs_[i] = r;
+    }
+  }
+}
+
+std::string CountsSum::Hex() const {
+  static constexpr char kHex[] = "0123456789abcdef";
+  std::string out;
+  for (size_t limb = 4; limb-- > 0;) {
+    for (int shift = 60; shift >= 0; shift -= 4) out.push_back(kHex[(limbs_[limb] >> shift) & 15]);
+  }
+  return out;
+}
+
+bool CountsSum::FromHex(std::string_view hex, CountsSum* out) {
+  if (hex.size() != 64) return false;
+  CountsSum s;
+  for (size_t i = 0; i < 64; ++i) {
+    char c = hex[i];
+    int v = c >= '0' && c <= '9' ? c - '0' : c >= 'a' && c <= 'f' ? c - 'a' + 10 : -1;
+    if (v < 0) return false;
+    size_t limb = 3 - i / 16;
+    s.limbs_[limb] = (s.limbs_[limb] << 4) | static_cast<uint64_t>(v);
+  }
+  *out = s;
+  return true;
+}
+
+CountsSum SumOfCounts(const ModelCounts& counts) {
+  CountsSum sum;
+  const size_t nq = counts.queues.size();
+  for (size_t row = 0; row < counts.terms.size(); ++row) {
+    for (size_t q = 0; q < nq; ++q) {
+      if (int64_t n = counts.counts[row * nq + q]; n > 0) sum.Add(counts.terms[row], counts.queues[q].name, n);
+    }
+  }
+  return sum;
+}
+
+std::string ModelFingerprint(const StoreSettings& settings, const ModelCounts& counts) {
+  return ModelFingerprint(settings, counts, SumOfCounts(counts));
+}
+
+std::string ModelFingerprint(const StoreSettings& settings, const ModelCounts& counts,
+                             const CountsSum& sum) {
+  Hasher h;
   const TokenizerOptions& t = settings.tokenizer;
   const ModelOptions& m = settings.model;
-  h.Add("chute-model 1\nalpha ");
+  h.Add("chute-model 2\nalpha ");
   h.Add(m.alpha);
   h.Add(m.prior == PriorMode::kUniform ? "\nprior uniform" : "\nprior learned");
   h.Add(t.bigrams ? "\nbigrams on" : "\nbigrams off");
@@ -81,13 +193,16 @@ ModelFingerprinter::ModelFingerprinter(const StoreSettings& settings,
   h.Add(static_cast<int64_t>(t.max_length));
   h.Add("\n");
 
-  for (size_t q = 0; q < queues.size(); ++q) {
-    if (queues[q].documents > 0) order_.push_back(q);
+  const size_t nq = counts.queues.size();
+  std::vector<size_t> order;  // queues with documents, by name
+  for (size_t q = 0; q < nq; ++q) {
+    if (counts.queues[q].documents > 0) order.push_back(q);
   }
-  std::sort(order_.begin(), order_.end(),
-            [&](size_t a, size_t b) { return queues[a].name < queues[b].name; });
-  for (size_t q : order_) {
-    const QueueCounts& qc = queues[q];
+  std::sort(order.begin(), order.end(), [&](size_t a, size_t b) {
+    return counts.queues[a].name < counts.queues[b].name;
+  });
+  for (size_t q : order) {
+    const QueueCounts& qc = counts.queues[q];
     h.Add("q ");
     h.AddSized(qc.name);
     h.Add(" ");
@@ -102,33 +217,10 @@ ModelFingerprinter::ModelFingerprinter(const StoreSettings& settings,
     }
     h.Add("\n");
   }
-}
-
-ModelFingerprinter::~ModelFingerprinter() = default;
-
-void ModelFingerprinter::AddRow(std::string_view term, const int64_t* row) {
-  Hasher& h = *hasher_;
-  for (size_t i = 0; i < order_.size(); ++i) {
-    if (row[order_[i]] == 0) continue;
-    h.Add("t ");
-    h.AddSized(term);
-    h.Add(" ");
-    h.Add(static_cast<int64_t>(i));
-    h.Add(" ");
-    h.Add(row[order_[i]]);
-    h.Add("\n");
-  }
-}
-
-std::string ModelFingerprinter::Hex() { return hasher_->Hex(); }
-
-std::string ModelFingerprint(const StoreSettings& settings, const ModelCounts& counts) {
-  ModelFingerprinter f(settings, counts.queues);
-  const size_t nq = counts.queues.size();
-  for (size_t row = 0; row < counts.terms.size(); ++row) {
-    f.AddRow(counts.terms[row], counts.counts.data() + row * nq);
-  }
-  return f.Hex();
+  h.Add("counts ");
+  h.Add(sum.Hex());
+  h.Add("\n");
+  return h.Hex();
 }
 
 }  // namespace chute

@@ -5,12 +5,14 @@
 #include <unistd.h>
 
 #include <algorithm>
+#include <cstdio>
 #include <cerrno>
 #include <charconv>
 #include <cstring>
 #include <unordered_map>
 #include <unordered_set>
 
+#include "store/fault_point.h"
 #include "store/queue_name.h"
 #include "store/schema.h"
 #include "store/store_file.h"
@@ -47,40 +49,65 @@ Store::Store(std::string path, sql::DbHandle db)
 
 Status Store::Create(const std::string& path, const StoreSettings& settings,
                      std::unique_ptr<Store>* out, const ChangeInfo& change) {
-  // Create the file ourselves so that it is 0600 from its first instant;
-  // SQLite gives its -wal and -shm files the same mode.
-  int fd = ::open(path.c_str(), O_CREAT | O_EXCL | O_WRONLY | O_CLOEXEC, 0600);
-  if (fd < 0) {
-    if (errno == EEXIST) {
-      return Status::InvalidArgument(path + ": already exists; chute init never overwrites a store");
-    }
-    return Status::IoError(path + ": cannot create: " + std::strerror(errno));
+  out->reset();
+  struct stat st {};
+  if (::lstat(path.c_str(), &st) == 0) {
+    return Status::InvalidArgument(path + ": already exists; chute init never overwrites a store");
   }
+  // The store is made whole under a temporary name in the same folder and
+  // then given its name in one step that never replaces a file, so that a
+  // crash leaves either no store or a complete one (at worst a stray
+  // .chute-init-* file). mkstemp makes the file 0600 from its first
+  // instant; SQLite gives its -wal and -shm files the same mode.
+  const size_t slash = path.rfind('/');
+  const std::string folder = slash == std::string::npos ? "." : path.substr(0, slash + 1);
+  std::string tmp = (slash == std::string::npos ? std::string() : folder) + ".chute-init-XXXXXX";
+  int fd = ::mkstemp(tmp.data());
+  if (fd < 0) return Status::IoError(path + ": cannot create: " + std::strerror(errno));
   ::close(fd);
-  auto fail = [&](Status s) {
-    out->reset();
-    for (const char* suffix : {"", "-wal", "-shm", "-journal"}) {
-      ::unlink((path + suffix).c_str());
-    }
-    return s;
+  auto remove_tmp = [&] {
+    for (const char* suffix : {"", "-wal", "-shm", "-journal"}) ::unlink((tmp + suffix).c_str());
   };
-  sql::DbHandle db;
-  Status s = OpenNewDb(path, &db);
-  if (s.ok()) s = sql::Exec(db.get(), "PRAGMA journal_mode = WAL");
-  if (s.ok()) s = ConfigureStoreConnection(db.get());
-  if (s.ok()) s = Migrate(db.get(), SchemaVersion());
-  if (!s.ok()) return fail(Status::IoError(path + ": " + s.message()));
-  std::unique_ptr<Store> store(new Store(path, std::move(db)));
+  Status s;
   {
-    sql::Transaction tx(store->db_.get());
-    s = tx.status();
-    if (s.ok()) s = store->SaveSettingsInTransaction(settings);
-    if (s.ok()) s = store->RecordVersionInTransaction("init", change, VersionDelta());
-    if (s.ok()) s = tx.Commit();
+    sql::DbHandle db;
+    s = OpenNewDb(tmp, &db);
+    if (s.ok()) s = sql::Exec(db.get(), "PRAGMA journal_mode = WAL");
+    if (s.ok()) s = ConfigureStoreConnection(db.get());
+    if (s.ok()) s = Migrate(db.get(), SchemaVersion());
+    if (s.ok()) {
+      Store store(tmp, std::move(db));
+      sql::Transaction tx(store.db_.get());
+      s = tx.status();
+      if (s.ok()) s = store.SaveSettingsInTransaction(settings);
+      if (s.ok()) s = store.RecordVersionInTransaction("init", change, VersionDelta());
+      if (s.ok()) s = tx.Commit();
+      // Closing the only connection checkpoints the write-ahead log into
+      // the file and deletes it (sqlite.org/wal.html), so the file alone is
+      // the store.
+    }
   }
-  if (!s.ok()) return fail(Status::IoError(path + ": " + s.message()));
-  *out = std::move(store);
-  return Status::Ok();
+  if (!s.ok()) {
+    remove_tmp();
+    return Status::IoError(path + ": " + s.message());
+  }
+  FaultPoint("init.before_name");
+  if (::renameat2(AT_FDCWD, tmp.c_str(), AT_FDCWD, path.c_str(), RENAME_NOREPLACE) != 0) {
+    int err = errno;
+    if (err == EINVAL || err == ENOSYS) {
+      // A filesystem without RENAME_NOREPLACE: a hard link never replaces.
+      err = ::link(tmp.c_str(), path.c_str()) == 0 ? 0 : errno;
+    }
+    if (err != 0) {
+      remove_tmp();
+      if (err == EEXIST) {
+        return Status::InvalidArgument(path + ": already exists; chute init never overwrites a store");
+      }
+      return Status::IoError(path + ": cannot create: " + std::strerror(err));
+    }
+  }
+  remove_tmp();  // after a link, the temporary name; after a rename, nothing
+  return Open(path, out);
 }
 
 Status Store::Open(const std::string& path, std::unique_ptr<Store>* out) {
@@ -180,41 +207,24 @@ Status Store::LoadModelCounts(ModelCounts* out, VersionInfo* version) {
   // Read in one transaction so that queues and counts agree.
   sql::ReadTransaction read(db_.get());
   if (!read.status().ok()) return read.status();
+
   std::unordered_map<int64_t, size_t> column;
-  Status s = LoadModelQueues(&out->queues, &column);
-  if (!s.ok()) return s;
-  const size_t nq = out->queues.size();
-  s = ScanCountRows(column, nq, [&](std::string_view term, const int64_t* row) {
-    out->terms.emplace_back(term);
-    out->counts.insert(out->counts.end(), row, row + nq);
-  });
-  if (!s.ok()) return s;
-  return version ? CurrentVersion(version) : Status::Ok();
-}
-
-Status Store::LoadModelQueues(std::vector<QueueCounts>* queues,
-                              std::unordered_map<int64_t, size_t>* column) {
-  queues->clear();
-  column->clear();
-  sql::Statement st(db_.get(),
-                    "SELECT id, name, documents, tokens, set_prior FROM queues "
-                    "WHERE retired IS NULL ORDER BY name");
-  if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
-  int rc;
-  while ((rc = st.Step()) == SQLITE_ROW) {
-    QueueCounts q;
-    q.name = st.ColumnText(1);
-    q.documents = st.ColumnInt(2);
-    q.tokens = st.ColumnInt(3);
-    if (!st.ColumnIsNull(4)) q.set_prior = st.ColumnDouble(4);
-    (*column)[st.ColumnInt(0)] = queues->size();
-    queues->push_back(std::move(q));
+  {
+    sql::Statement st(db_.get(),
+                      "SELECT id, name, documents, tokens, set_prior FROM queues "
+                      "WHERE retired IS NULL ORDER BY name");
+    if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+    while (st.Step() == SQLITE_ROW) {
+      QueueCounts q;
+      q.name = st.ColumnText(1);
+      q.documents = st.ColumnInt(2);
+      q.tokens = st.ColumnInt(3);
+      if (!st.ColumnIsNull(4)) q.set_prior = st.ColumnDouble(4);
+      column[st.ColumnInt(0)] = out->queues.size();
+      out->queues.push_back(std::move(q));
+    }
   }
-  return rc == SQLITE_DONE ? Status::Ok() : sql::ErrorStatus(db_.get(), path_);
-}
-
-Status Store::ScanCountRows(const std::unordered_map<int64_t, size_t>& column, size_t nq,
-                            const std::function<void(std::string_view, const int64_t*)>& fn) {
+  const size_t nq = out->queues.size();
   // Terms in byte order of their text, whatever order they were learned in:
   // the rows of a model, and so the order in which a document's terms are
   // summed, depend only on the counts (a forgotten document leaves the model
@@ -224,27 +234,41 @@ Status Store::ScanCountRows(const std::unordered_map<int64_t, size_t>& column, s
                     "FROM terms t JOIN counts c ON c.term_id = t.id "
                     "ORDER BY t.text, c.queue_id");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
-  std::string term;  // the row being gathered; a column's text lives one step
-  std::vector<int64_t> row(nq, 0);
   int64_t last_term = -1;
   int rc;
   while ((rc = st.Step()) == SQLITE_ROW) {
     int64_t term_id = st.ColumnInt(0);
     if (term_id != last_term) {
-      if (last_term != -1) fn(term, row.data());
-      term = st.ColumnText(1);
-      std::fill(row.begin(), row.end(), 0);
+      out->terms.emplace_back(st.ColumnText(1));
+      out->counts.resize(out->counts.size() + nq, 0);
       last_term = term_id;
     }
     auto col = column.find(st.ColumnInt(2));
     if (col == column.end()) {
       return Status::Corruption(path_ + ": counts name a queue that does not exist");
     }
-    row[col->second] = st.ColumnInt(3);
+    out->counts[(out->terms.size() - 1) * nq + col->second] = st.ColumnInt(3);
   }
   if (rc != SQLITE_DONE) return sql::ErrorStatus(db_.get(), path_);
-  if (last_term != -1) fn(term, row.data());
-  return Status::Ok();
+  return version ? CurrentVersion(version) : Status::Ok();
+}
+
+Status Store::LoadQueueCounts(ModelCounts* out) {
+  *out = ModelCounts();
+  sql::Statement st(db_.get(),
+                    "SELECT name, documents, tokens, set_prior FROM queues "
+                    "WHERE retired IS NULL ORDER BY name");
+  if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+  int rc;
+  while ((rc = st.Step()) == SQLITE_ROW) {
+    QueueCounts q;
+    q.name = st.ColumnText(0);
+    q.documents = st.ColumnInt(1);
+    q.tokens = st.ColumnInt(2);
+    if (!st.ColumnIsNull(3)) q.set_prior = st.ColumnDouble(3);
+    out->queues.push_back(std::move(q));
+  }
+  return rc == SQLITE_DONE ? Status::Ok() : sql::ErrorStatus(db_.get(), path_);
 }
 
 Status Store::FindDocument(const std::string& digest,
@@ -312,6 +336,13 @@ Status Store::Learn(const LearnBatch& batch, const ChangeInfo& change,
   if (!tx.status().ok()) {
     return Status::Busy(path_ + ": " + tx.status().message());
   }
+  // The running sum is this change's only (a failed change must not leave
+  // its sum to the next one).
+  sum_state_ = SumState::kFresh;
+  struct SumReset {
+    SumState* state;
+    ~SumReset() { *state = SumState::kFresh; }
+  } sum_reset{&sum_state_};
   VersionDelta delta;
   const std::string now = change.now.empty() ? StoreClockNow() : change.now;
   Status s = LearnInTransaction(batch, now, result, &delta);
@@ -320,6 +351,7 @@ Status Store::Learn(const LearnBatch& batch, const ChangeInfo& change,
     s = RecordVersionInTransaction("learn", change, delta);
     if (!s.ok()) return s;
   }
+  FaultPoint("learn.before_commit");
   s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();
@@ -466,7 +498,12 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
     sql::Statement add(db, "INSERT INTO terms(text) VALUES(?)");
     sql::Statement upsert(db,
                           "INSERT INTO counts(term_id, queue_id, n) VALUES(?, ?, ?) "
-                          "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n");
+                          "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n "
+                          "RETURNING n");
+    if (sum_state_ == SumState::kFresh) {
+      if (Status s = StartRunningSumInTransaction(); !s.ok()) return fail(s);
+    }
+    const bool track = sum_state_ == SumState::kRunning;
     if (!find.ok() || !add.ok() || !upsert.ok()) {
       return Status::IoError(path_ + ": " + find.error() + add.error() + upsert.error());
     }
@@ -486,8 +523,15 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
         find.Reset();
         last_rank = sum.term_rank;
       }
-      Status s = upsert.Bind(1, term_id).Bind(2, queue_ids[sum.queue]).Bind(3, sum.n).Run();
+      upsert.Bind(1, term_id).Bind(2, queue_ids[sum.queue]).Bind(3, sum.n);
+      if (upsert.Step() != SQLITE_ROW) return fail(sql::ErrorStatus(db, path_));
+      const int64_t after = upsert.ColumnInt(0);
+      Status s = upsert.Run();  // finishes the statement (RETURNING) and resets it
       if (!s.ok()) return fail(s);
+      if (track) {
+        running_sum_.Change(batch.term(by_text[sum.term_rank]), queue_names[sum.queue],
+                            after - sum.n, after);
+      }
     }
   }
 

@@ -15,11 +15,10 @@
 #include <memory>
 #include <optional>
 #include <string>
-#include <string_view>
-#include <unordered_map>
 #include <vector>
 
 #include "classify/model_counts.h"
+#include "store/fingerprint.h"
 #include "store/learn_batch.h"
 #include "store/sqlite.h"
 #include "store/status.h"
@@ -239,6 +238,9 @@ class Store {
   // Retired queues are left out.
   Status LoadModelCounts(ModelCounts* out, VersionInfo* version = nullptr);
 
+  // LoadModelCounts without terms and counts: the queues only.
+  Status LoadQueueCounts(ModelCounts* out);
+
   // Versions, oldest first (those pruned are gone).
   Status ListVersions(std::vector<VersionInfo>* out);
   // The newest version: the current model's.
@@ -372,14 +374,6 @@ class Store {
   // already there. A document out of the model enters it in the new queue.
   Status MoveInTransaction(const std::vector<std::pair<std::string, int64_t>>& moves,
                            std::vector<std::string>* from, VersionDelta* delta);
-  // The parts of LoadModelCounts, inside the caller's transaction: the
-  // queues that are not retired, by name, with each queue id's index; then
-  // fn(term, row) for every term with counts, in byte order of the terms,
-  // row[column[queue id]] = N(q, w) (nq columns, zero where none).
-  Status LoadModelQueues(std::vector<QueueCounts>* queues,
-                         std::unordered_map<int64_t, size_t>* column);
-  Status ScanCountRows(const std::unordered_map<int64_t, size_t>& column, size_t nq,
-                       const std::function<void(std::string_view, const int64_t*)>& fn);
   // Records the change just made as a new version, inside the caller's
   // write transaction (schema.h: versions, changes, snapshots). Computes
   // the fingerprint of the model as it now is. *made (optional) gets it.
@@ -410,6 +404,16 @@ class Store {
   StoreSettings settings_;
   // Prepared once: learn asks for every document it reads.
   sql::Statement find_document_;
+  // The sum of count digests (fingerprint.h) while a change keeps it up to
+  // date row by row: kFresh between changes; kRunning once a change loaded
+  // it and updates it with every count it writes; kInvalid once counts were
+  // written without updating it (the version then sums every count).
+  enum class SumState { kFresh, kRunning, kInvalid };
+  SumState sum_state_ = SumState::kFresh;
+  CountsSum running_sum_;
+  // Loads running_sum_ (settings row counts_sum, else summed from every
+  // count) and sets kRunning, when kFresh.
+  Status StartRunningSumInTransaction();
 };
 
 }  // namespace chute

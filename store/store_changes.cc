@@ -10,6 +10,7 @@
 #include <utility>
 #include <vector>
 
+#include "store/fault_point.h"
 #include "store/store.h"
 #include "store/term_counts_codec.h"
 
@@ -119,19 +120,22 @@ class CountDelta {
 
   // Writes the sums. Terms a sum adds to are created when missing. With
   // drop_terms, a term whose counts are all gone is deleted from the
-  // vocabulary (counted in *dropped). Fails on counts smaller than what is
-  // taken out of them (a damaged store).
+  // vocabulary (counted in *dropped). With running (not null), keeps the
+  // sum of count digests (fingerprint.h) up to date with every row
+  // written. Fails on counts smaller than what is taken out of them (a
+  // damaged store).
   Status Apply(sqlite3* db, const std::string& path, bool drop_terms,
-               int64_t* dropped) {
+               int64_t* dropped, CountsSum* running) {
     sql::Statement find_term(db, "SELECT id FROM terms WHERE text = ?");
     sql::Statement add_term(db, "INSERT INTO terms(text) VALUES(?)");
     sql::Statement upsert(
         db,
         "INSERT INTO counts(term_id, queue_id, n) VALUES(?, ?, ?) "
-        "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n");
+        "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n "
+        "RETURNING n");
     sql::Statement lower(db,
                          "UPDATE counts SET n = n - ? WHERE term_id = ? AND "
-                         "queue_id = ? AND n > ?");
+                         "queue_id = ? AND n > ? RETURNING n");
     sql::Statement remove(
         db, "DELETE FROM counts WHERE term_id = ? AND queue_id = ? AND n = ?");
     sql::Statement drop_term(db,
@@ -194,23 +198,48 @@ class CountDelta {
                                     : a.queue_id < b.queue_id;
     });
 
+    // Queue names, for the row digests of the running sum.
+    std::unordered_map<int64_t, std::string> queue_names;
+    if (running) {
+      sql::Statement st(db, "SELECT id, name FROM queues");
+      if (!st.ok()) return Status::IoError(path + ": " + st.error());
+      int rc;
+      while ((rc = st.Step()) == SQLITE_ROW)
+        queue_names.emplace(st.ColumnInt(0), st.ColumnText(1));
+      if (rc != SQLITE_DONE) return sql::ErrorStatus(db, path);
+    }
     bool emptied = false;  // a row of the current term was deleted
     for (size_t i = 0; i < rows.size(); ++i) {
       const Row& r = rows[i];
       Status s;
+      int64_t before = 0, after = 0;
       if (r.n > 0) {
-        s = upsert.Bind(1, r.term_id).Bind(2, r.queue_id).Bind(3, r.n).Run();
+        upsert.Bind(1, r.term_id).Bind(2, r.queue_id).Bind(3, r.n);
+        if (upsert.Step() != SQLITE_ROW) return sql::ErrorStatus(db, path);
+        after = upsert.ColumnInt(0);
+        before = after - r.n;
+        s = upsert.Run();  // finishes the statement (RETURNING) and resets it
       } else {
         const int64_t m = -r.n;
-        s = lower.Bind(1, m).Bind(2, r.term_id).Bind(3, r.queue_id).Bind(4, m).Run();
-        if (s.ok() && sqlite3_changes(db) == 0) {
+        lower.Bind(1, m).Bind(2, r.term_id).Bind(3, r.queue_id).Bind(4, m);
+        const int rc = lower.Step();
+        if (rc == SQLITE_ROW) {
+          after = lower.ColumnInt(0);
+          before = after + m;
+          s = lower.Run();
+        } else if (rc != SQLITE_DONE) {
+          return sql::ErrorStatus(db, path);
+        } else {
+          lower.Reset();
           s = remove.Bind(1, r.term_id).Bind(2, r.queue_id).Bind(3, m).Run();
           if (s.ok() && sqlite3_changes(db) == 0)
             return Damaged(db, path, r.queue_id, *terms_[r.term]);
+          before = m;
           emptied = true;
         }
       }
       if (!s.ok()) return s;
+      if (running) running->Change(*terms_[r.term], queue_names[r.queue_id], before, after);
       const bool last_of_term =
           i + 1 == rows.size() || rows[i + 1].term_id != r.term_id;
       if (last_of_term) {
@@ -335,8 +364,12 @@ Status Store::MoveInTransaction(
     if (!s.ok()) return s;
   }
   // Moves keep every term's total, so no term leaves the vocabulary.
+  if (sum_state_ == SumState::kFresh) {
+    if (s = StartRunningSumInTransaction(); !s.ok()) return s;
+  }
   int64_t dropped = 0;
-  return counts.Apply(db, path_, /*drop_terms=*/false, &dropped);
+  return counts.Apply(db, path_, /*drop_terms=*/false, &dropped,
+                      sum_state_ == SumState::kRunning ? &running_sum_ : nullptr);
 }
 
 Status Store::ResolveDocument(const DocumentName& name, Resolution* out) {
@@ -403,6 +436,11 @@ Status Store::Correct(const std::vector<CorrectMove>& moves,
                       const LearnBatch& batch, const ChangeInfo& change,
                       CorrectResult* result) {
   *result = CorrectResult();
+  sum_state_ = SumState::kFresh;
+  struct SumReset {
+    SumState* state;
+    ~SumReset() { *state = SumState::kFresh; }
+  } sum_reset{&sum_state_};
   sql::Transaction tx(db_.get());
   if (!tx.status().ok())
     return Status::Busy(path_ + ": " + tx.status().message());
@@ -432,6 +470,7 @@ Status Store::Correct(const std::vector<CorrectMove>& moves,
     Status s = RecordVersionInTransaction("correct", change, delta);
     if (!s.ok()) return s;
   }
+  FaultPoint("correct.before_commit");
   Status s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();
@@ -478,15 +517,26 @@ Status Store::Forget(const std::vector<std::string>& digests,
       erased.push_back(doc.ledger_id);
       result->forgotten.push_back(std::move(doc.entry));
     }
-    s = counts.Apply(db, path_, /*drop_terms=*/true, &result->removed_terms);
+    // The running sum is this change's only (a failed change must not
+    // leave its sum to the next one).
+    sum_state_ = SumState::kFresh;
+    struct SumReset {
+      SumState* state;
+      ~SumReset() { *state = SumState::kFresh; }
+    } sum_reset{&sum_state_};
+    if (s = StartRunningSumInTransaction(); !s.ok()) return s;
+    s = counts.Apply(db, path_, /*drop_terms=*/true, &result->removed_terms,
+                     sum_state_ == SumState::kRunning ? &running_sum_ : nullptr);
     if (!s.ok()) return s;
     if (s = EraseFromSnapshotsInTransaction(erased); !s.ok()) return s;
     // The version records how many documents left, never which.
     s = RecordVersionInTransaction("forget", change, delta);
     if (!s.ok()) return s;
+    FaultPoint("forget.before_commit");
     s = tx.Commit();
     if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   }
+  FaultPoint("forget.before_checkpoint");
   // Empty the write-ahead log, which otherwise keeps the pages as they were
   // before.
   result->checkpointed = sql::CheckpointTruncate(db);
@@ -517,6 +567,7 @@ Status Store::Rollback(int64_t v, const ChangeInfo& change,
                               "{\"rollback_to\":" + std::to_string(v) + "}",
                               result);
   if (!s.ok()) return s;
+  FaultPoint("rollback.before_commit");
   s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();
@@ -638,7 +689,7 @@ Status Store::ApplyStateInTransaction(const VersionState& target,
   }
   // A term whose counts are all gone leaves the vocabulary.
   int64_t dropped = 0;
-  if (s = counts.Apply(db, path_, /*drop_terms=*/true, &dropped); !s.ok()) return s;
+  if (s = counts.Apply(db, path_, /*drop_terms=*/true, &dropped, nullptr); !s.ok()) return s;
 
   // The model settings of v (its tokenizing settings are the store's).
   StoreSettings settings = settings_;
