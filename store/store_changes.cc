@@ -31,6 +31,16 @@ struct StoredDocument {
   std::vector<TermCount> terms;
 };
 
+// Every queue's name by id (retired ones too).
+Status QueueNames(sqlite3* db, const std::string& path,
+                  std::unordered_map<int64_t, std::string>* out) {
+  sql::Statement st(db, "SELECT id, name FROM queues");
+  if (!st.ok()) return Status::IoError(path + ": " + st.error());
+  int rc;
+  while ((rc = st.Step()) == SQLITE_ROW) out->emplace(st.ColumnInt(0), st.ColumnText(1));
+  return rc == SQLITE_DONE ? Status::Ok() : sql::ErrorStatus(db, path);
+}
+
 // Reads ledger rows with their term counts, by digest or by ledger id,
 // through statements prepared once.
 class LedgerReader {
@@ -198,12 +208,7 @@ class CountDelta {
     // Queue names, for the row digests of the running sum.
     std::unordered_map<int64_t, std::string> queue_names;
     if (running) {
-      sql::Statement st(db, "SELECT id, name FROM queues");
-      if (!st.ok()) return Status::IoError(path + ": " + st.error());
-      int rc;
-      while ((rc = st.Step()) == SQLITE_ROW)
-        queue_names.emplace(st.ColumnInt(0), st.ColumnText(1));
-      if (rc != SQLITE_DONE) return sql::ErrorStatus(db, path);
+      if (Status s = QueueNames(db, path, &queue_names); !s.ok()) return s;
     }
     bool emptied = false;  // a row of the current term was deleted
     for (size_t i = 0; i < rows.size(); ++i) {
@@ -292,14 +297,7 @@ Status Store::MoveInTransaction(
   Status s = ledger.status();
   if (!s.ok()) return s;
   std::unordered_map<int64_t, std::string> queue_names;
-  {
-    sql::Statement st(db, "SELECT id, name FROM queues");
-    if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
-    int rc;
-    while ((rc = st.Step()) == SQLITE_ROW)
-      queue_names.emplace(st.ColumnInt(0), st.ColumnText(1));
-    if (rc != SQLITE_DONE) return sql::ErrorStatus(db, path_);
-  }
+  if (s = QueueNames(db, path_, &queue_names); !s.ok()) return s;
   // Each document read once; the moves are followed in order in memory
   // (where each document is, whether it is counted), then only the net
   // change is counted: out of the queue it was in, into the one it ends in.
