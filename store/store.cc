@@ -496,23 +496,28 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
   {
     sql::Statement find(db, "SELECT id FROM terms WHERE text = ?");
     sql::Statement add(db, "INSERT INTO terms(text) VALUES(?)");
-    sql::Statement upsert(db,
-                          "INSERT INTO counts(term_id, queue_id, n) VALUES(?, ?, ?) "
-                          "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n "
-                          "RETURNING n");
+    // The current count is read (for a term the vocabulary had) and the new
+    // one written as it is: an upsert with RETURNING n made SQLite write a
+    // temporary file for every row (as in store_changes.cc's CountDelta).
+    sql::Statement get(db, "SELECT n FROM counts WHERE term_id = ? AND queue_id = ?");
+    sql::Statement insert(db, "INSERT INTO counts(term_id, queue_id, n) VALUES(?, ?, ?)");
+    sql::Statement update(db, "UPDATE counts SET n = ? WHERE term_id = ? AND queue_id = ?");
     if (sum_state_ == SumState::kFresh) {
       if (Status s = StartRunningSumInTransaction(); !s.ok()) return fail(s);
     }
     const bool track = sum_state_ == SumState::kRunning;
-    if (!find.ok() || !add.ok() || !upsert.ok()) {
-      return Status::IoError(path_ + ": " + find.error() + add.error() + upsert.error());
+    if (!find.ok() || !add.ok() || !get.ok() || !insert.ok() || !update.ok()) {
+      return Status::IoError(path_ + ": " + find.error() + add.error() + get.error() +
+                             insert.error() + update.error());
     }
     int64_t last_rank = -1, term_id = 0;
+    bool new_term = false;
     for (const Sum& sum : sums) {
       if (sum.term_rank != last_rank) {
         std::string_view text = batch.term(by_text[sum.term_rank]);
         find.Bind(1, text);
-        if (find.Step() == SQLITE_ROW) {
+        new_term = find.Step() != SQLITE_ROW;
+        if (!new_term) {
           term_id = find.ColumnInt(0);
         } else {
           Status s = add.Bind(1, text).Run();
@@ -523,10 +528,18 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
         find.Reset();
         last_rank = sum.term_rank;
       }
-      upsert.Bind(1, term_id).Bind(2, queue_ids[sum.queue]).Bind(3, sum.n);
-      if (upsert.Step() != SQLITE_ROW) return fail(sql::ErrorStatus(db, path_));
-      const int64_t after = upsert.ColumnInt(0);
-      Status s = upsert.Run();  // finishes the statement (RETURNING) and resets it
+      int64_t before = 0;
+      if (!new_term) {
+        get.Bind(1, term_id).Bind(2, queue_ids[sum.queue]);
+        const int rc = get.Step();
+        if (rc == SQLITE_ROW) before = get.ColumnInt(0);
+        get.Reset();
+        if (rc != SQLITE_ROW && rc != SQLITE_DONE) return fail(sql::ErrorStatus(db, path_));
+      }
+      const int64_t after = before + sum.n;
+      Status s = before == 0
+                     ? insert.Bind(1, term_id).Bind(2, queue_ids[sum.queue]).Bind(3, after).Run()
+                     : update.Bind(1, after).Bind(2, term_id).Bind(3, queue_ids[sum.queue]).Run();
       if (!s.ok()) return fail(s);
       if (track) {
         running_sum_.Change(batch.term(by_text[sum.term_rank]), queue_names[sum.queue],
