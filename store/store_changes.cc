@@ -346,8 +346,10 @@ Status Store::Forget(const std::vector<std::string>& digests,
         ++delta.removed;
       }
       s = remove.Bind(1, doc.ledger_id).Run();
-      // Every trace in the history too: the change log and the snapshots.
+      // Every trace in the history too: the change log and the snapshots;
+      // and its recount, when a rebuild or a candidate holds one.
       if (s.ok()) s = unlog.Bind(1, doc.ledger_id).Run();
+      if (s.ok()) s = ForgetRecountInTransaction(doc.ledger_id);
       if (!s.ok()) return s;
       erased.push_back(doc.ledger_id);
       result->forgotten.push_back(std::move(doc.entry));

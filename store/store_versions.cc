@@ -17,6 +17,7 @@
 #include "store/fingerprint.h"
 #include "store/store.h"
 #include "store/term_counts_codec.h"
+#include "store/version_codec.h"
 
 namespace chute {
 
@@ -29,116 +30,6 @@ std::string StoreClockNow() {
   char buf[32];
   std::strftime(buf, sizeof buf, "%Y-%m-%dT%H:%M:%SZ", &tm);
   return buf;
-}
-
-std::string FormatDouble(double v) {
-  char buf[32];
-  auto r = std::to_chars(buf, buf + sizeof buf, v);
-  return std::string(buf, r.ptr);
-}
-
-// LEB128 varints (common practice; as in Protocol Buffers).
-void PutVarint(uint64_t v, std::string* out) {
-  while (v >= 0x80) {
-    out->push_back(static_cast<char>((v & 0x7f) | 0x80));
-    v >>= 7;
-  }
-  out->push_back(static_cast<char>(v));
-}
-
-bool GetVarint(std::string_view* in, uint64_t* v) {
-  *v = 0;
-  for (int shift = 0; shift < 64 && !in->empty(); shift += 7) {
-    auto byte = static_cast<unsigned char>(in->front());
-    in->remove_prefix(1);
-    *v |= static_cast<uint64_t>(byte & 0x7f) << shift;
-    if ((byte & 0x80) == 0) return true;
-  }
-  return false;
-}
-
-// A snapshot's members: (ledger id, queue id) sorted by ledger id, as
-// varint(id - previous id) varint(queue id).
-std::string EncodeMembers(const std::vector<std::pair<int64_t, int64_t>>& members) {
-  std::string out;
-  int64_t last = 0;
-  for (const auto& [id, queue] : members) {
-    PutVarint(static_cast<uint64_t>(id - last), &out);
-    PutVarint(static_cast<uint64_t>(queue), &out);
-    last = id;
-  }
-  return out;
-}
-
-bool DecodeMembers(std::string_view blob, std::vector<std::pair<int64_t, int64_t>>* out) {
-  out->clear();
-  int64_t last = 0;
-  while (!blob.empty()) {
-    uint64_t delta = 0, queue = 0;
-    if (!GetVarint(&blob, &delta) || !GetVarint(&blob, &queue) || delta == 0 ||
-        delta > static_cast<uint64_t>(INT64_MAX - last) || queue > INT64_MAX) {
-      return false;
-    }
-    last += static_cast<int64_t>(delta);
-    out->emplace_back(last, static_cast<int64_t>(queue));
-  }
-  return true;
-}
-
-// The header of a version: its settings and queues, one per line:
-//   s <key> <value>
-//   q <id> <retired 0|1> <hand-set prior or -> <name>
-std::string EncodeHeader(const StoreSettings& settings, const std::vector<VersionQueue>& queues) {
-  std::string out;
-  for (const auto& [key, value] : EncodeSettings(settings)) {
-    out += "s " + key + " " + value + "\n";
-  }
-  for (const VersionQueue& q : queues) {
-    out += "q " + std::to_string(q.id) + (q.retired ? " 1 " : " 0 ") +
-           (q.set_prior ? FormatDouble(*q.set_prior) : "-") + " " + q.name + "\n";
-  }
-  return out;
-}
-
-bool DecodeHeader(std::string_view text, StoreSettings* settings,
-                  std::vector<VersionQueue>* queues) {
-  std::vector<std::pair<std::string, std::string>> rows;
-  queues->clear();
-  while (!text.empty()) {
-    size_t nl = text.find('\n');
-    if (nl == std::string_view::npos) return false;
-    std::string_view line = text.substr(0, nl);
-    text.remove_prefix(nl + 1);
-    auto field = [&line]() {
-      size_t sp = line.find(' ');
-      std::string_view f = line.substr(0, sp);
-      line.remove_prefix(sp == std::string_view::npos ? line.size() : sp + 1);
-      return f;
-    };
-    std::string_view kind = field();
-    if (kind == "s") {
-      std::string_view key = field();
-      rows.emplace_back(std::string(key), std::string(line));
-    } else if (kind == "q") {
-      VersionQueue q;
-      std::string_view id = field(), retired = field(), prior = field();
-      if (std::from_chars(id.data(), id.data() + id.size(), q.id).ec != std::errc()) return false;
-      q.retired = retired == "1";
-      if (prior != "-") {
-        double p = 0;
-        if (std::from_chars(prior.data(), prior.data() + prior.size(), p).ec != std::errc()) {
-          return false;
-        }
-        q.set_prior = p;
-      }
-      q.name = std::string(line);
-      queues->push_back(std::move(q));
-    } else {
-      return false;
-    }
-  }
-  std::string why;
-  return DecodeSettings(rows, settings, &why);
 }
 
 VersionInfo ReadVersionRow(const sql::Statement& st) {
@@ -209,6 +100,23 @@ Status Store::EraseFromSnapshotsInTransaction(const std::vector<int64_t>& ids) {
   return Status::Ok();
 }
 
+Status Store::CurrentQueuesInTransaction(std::vector<VersionQueue>* out) {
+  out->clear();
+  sql::Statement st(db_.get(),
+                    "SELECT id, name, set_prior, retired IS NOT NULL FROM queues ORDER BY id");
+  if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+  int rc;
+  while ((rc = st.Step()) == SQLITE_ROW) {
+    VersionQueue q;
+    q.id = st.ColumnInt(0);
+    q.name = st.ColumnText(1);
+    if (!st.ColumnIsNull(2)) q.set_prior = st.ColumnDouble(2);
+    q.retired = st.ColumnInt(3) != 0;
+    out->push_back(std::move(q));
+  }
+  return rc == SQLITE_DONE ? Status::Ok() : sql::ErrorStatus(db_.get(), path_);
+}
+
 Status Store::RecordVersionInTransaction(const std::string& command, const ChangeInfo& change,
                                          const VersionDelta& delta, VersionInfo* made) {
   sqlite3* db = db_.get();
@@ -216,18 +124,7 @@ Status Store::RecordVersionInTransaction(const std::string& command, const Chang
   Status s = LoadModelCounts(&counts);
   if (!s.ok()) return s;
   std::vector<VersionQueue> queues;
-  {
-    sql::Statement st(db, "SELECT id, name, set_prior, retired IS NOT NULL FROM queues ORDER BY id");
-    if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
-    while (st.Step() == SQLITE_ROW) {
-      VersionQueue q;
-      q.id = st.ColumnInt(0);
-      q.name = st.ColumnText(1);
-      if (!st.ColumnIsNull(2)) q.set_prior = st.ColumnDouble(2);
-      q.retired = st.ColumnInt(3) != 0;
-      queues.push_back(std::move(q));
-    }
-  }
+  if (s = CurrentQueuesInTransaction(&queues); !s.ok()) return s;
   VersionInfo v;
   v.time = change.now.empty() ? StoreClockNow() : change.now;
   v.command = command;
@@ -407,9 +304,21 @@ Status Store::ModelAtVersion(int64_t v, VersionInfo* info, StoreSettings* settin
         " tokenized with other settings than the store's documents are counted with now "
         "(a rebuild changed them); its documents must be recounted from their kept text");
   }
-  // Columns: the version's queues that are not retired, by name.
+  s = SumMembers(state.queues, state.members, /*recounted=*/false, out);
+  if (!s.ok()) return s;
+  *info = state.info;
+  *settings = state.settings;
+  return Status::Ok();
+}
+
+Status Store::SumMembers(const std::vector<VersionQueue>& queues,
+                         const std::vector<std::pair<int64_t, int64_t>>& members, bool recounted,
+                         ModelCounts* out) {
+  *out = ModelCounts();
+  sqlite3* db = db_.get();
+  // Columns: the queues that are not retired, by name.
   std::vector<const VersionQueue*> live;
-  for (const VersionQueue& q : state.queues) {
+  for (const VersionQueue& q : queues) {
     if (!q.retired) live.push_back(&q);
   }
   std::sort(live.begin(), live.end(),
@@ -426,20 +335,21 @@ Status Store::ModelAtVersion(int64_t v, VersionInfo* info, StoreSettings* settin
   std::unordered_map<std::string, size_t> row_of;
   std::vector<std::string> terms;
   std::vector<int64_t> sums;
-  sql::Statement doc(db, "SELECT tokens, term_counts FROM ledger WHERE id = ?");
+  sql::Statement doc(db, recounted
+                             ? "SELECT tokens, term_counts FROM rebuild_docs WHERE ledger_id = ?"
+                             : "SELECT tokens, term_counts FROM ledger WHERE id = ?");
   if (!doc.ok()) return Status::IoError(path_ + ": " + doc.error());
   std::vector<TermCount> own;
-  for (const auto& [id, queue] : state.members) {
+  for (const auto& [id, queue] : members) {
     auto col = column.find(queue);
     if (col == column.end()) {
-      return Status::Corruption(path_ + ": version " + std::to_string(v) +
-                                " counts a document in a queue its header does not list");
+      return Status::Corruption(path_ + ": a model counts a document in a queue it does not list");
     }
     doc.Bind(1, id);
     if (doc.Step() != SQLITE_ROW || !DecodeTermCounts(doc.ColumnBlob(1), &own)) {
       doc.Reset();
-      return Status::Corruption(path_ + ": a document of version " + std::to_string(v) +
-                                " is missing from the ledger or does not decode");
+      return Status::Corruption(path_ + ": a document of a model is missing from the " +
+                                (recounted ? "recount" : "ledger") + " or does not decode");
     }
     QueueCounts& qc = out->queues[col->second];
     ++qc.documents;
@@ -464,8 +374,6 @@ Status Store::ModelAtVersion(int64_t v, VersionInfo* info, StoreSettings* settin
     out->counts.insert(out->counts.end(), sums.begin() + static_cast<ptrdiff_t>(r * nq),
                        sums.begin() + static_cast<ptrdiff_t>((r + 1) * nq));
   }
-  *info = state.info;
-  *settings = state.settings;
   return Status::Ok();
 }
 
