@@ -7,12 +7,14 @@
 #include <unordered_set>
 #include <utility>
 
+#include "store/fingerprint.h"
 #include "store/queue_name.h"
 #include "store/schema.h"
 #include "store/sqlite.h"
 #include "store/store_file.h"
 #include "store/store_settings.h"
 #include "store/term_counts_codec.h"
+#include "store/version_codec.h"
 
 namespace chute {
 
@@ -53,6 +55,7 @@ struct QueueRow {
   int64_t documents = 0;
   int64_t tokens = 0;
   std::optional<double> set_prior;
+  bool retired = false;
   // Summed from the ledger.
   int64_t ledger_documents = 0;
   int64_t ledger_tokens = 0;
@@ -85,6 +88,8 @@ class Checker {
     if (s.ok()) s = Ledger();
     if (s.ok()) s = Counts();
     if (s.ok()) QueueTotals();
+    if (s.ok()) s = History();
+    if (s.ok()) s = Fingerprint();
     return s;
   }
 
@@ -133,7 +138,9 @@ class Checker {
 
   Status LoadQueues() {
     sql::Statement st(
-        db_, "SELECT id, name, documents, tokens, set_prior FROM queues");
+        db_,
+        "SELECT id, name, documents, tokens, set_prior, retired IS NOT NULL "
+        "FROM queues");
     if (!st.ok()) return Error();
     int rc;
     while ((rc = st.Step()) == SQLITE_ROW) {
@@ -142,6 +149,7 @@ class Checker {
       q.documents = st.ColumnInt(2);
       q.tokens = st.ColumnInt(3);
       if (!st.ColumnIsNull(4)) q.set_prior = st.ColumnDouble(4);
+      q.retired = st.ColumnInt(5) != 0;
       queues_.emplace(st.ColumnInt(0), std::move(q));
     }
     if (rc != SQLITE_DONE) return Error();
@@ -158,9 +166,9 @@ class Checker {
     while ((rc = st.Step()) == SQLITE_ROW)
       rows.emplace_back(st.ColumnText(0), st.ColumnText(1));
     if (rc != SQLITE_DONE) return Error();
-    StoreSettings settings;
     std::string why;
-    if (!DecodeSettings(rows, &settings, &why)) f.Add(why);
+    settings_ok_ = DecodeSettings(rows, &settings_, &why);
+    if (!settings_ok_) f.Add(why);
     double sum = 0;
     for (const auto& [id, q] : queues_) {
       if (!q.set_prior) continue;
@@ -210,7 +218,8 @@ class Checker {
     Findings tokens(report_, "ledger_tokens");
     sql::Statement st(
         db_,
-        "SELECT digest, queue_id, tokens, term_counts FROM ledger ORDER BY id");
+        "SELECT digest, queue_id, tokens, term_counts, in_model, id FROM ledger "
+        "ORDER BY id");
     if (!st.ok()) return Error();
     std::vector<TermCount> terms;
     int rc;
@@ -219,9 +228,13 @@ class Checker {
       std::string digest(st.ColumnText(0));
       int64_t queue_id = st.ColumnInt(1);
       int64_t doc_tokens = st.ColumnInt(2);
+      const bool in_model = st.ColumnInt(4) != 0;
+      if (in_model) members_.emplace_back(st.ColumnInt(5), queue_id);
       auto q = queues_.find(queue_id);
       QueueRow* queue =
           q == queues_.end() ? nullptr : &q->second;  // else an orphan
+      // Documents kept only for history are not counted in the model.
+      if (!in_model) queue = nullptr;
       if (queue) {
         ++queue->ledger_documents;
         queue->ledger_tokens += doc_tokens;
@@ -285,6 +298,7 @@ class Checker {
                      Quote(q->second.name) + " is " + std::to_string(n));
       } else {
         term_totals[term_id] += n;
+        model_rows_.push_back({&t->second, queue_id, n});
       }
       auto l = ledger_sums_.find({term_id, queue_id});
       int64_t ledger = l == ledger_sums_.end() ? 0 : l->second;
@@ -353,8 +367,156 @@ class Checker {
     f.Finish("each queue's documents and tokens equal its ledger entries'");
   }
 
+  // The version history: every header and snapshot decodes, the change log
+  // names only documents the ledger holds (forget leaves no trace), and
+  // replaying it from the newest snapshot gives the current model's
+  // members.
+  Status History() {
+    Findings f(report_, "history");
+    int64_t newest = 0, versions = 0;
+    {
+      sql::Statement st(db_, "SELECT id, header FROM versions ORDER BY id");
+      if (!st.ok()) return Error();
+      StoreSettings settings;
+      std::vector<VersionQueue> queues;
+      int rc;
+      while ((rc = st.Step()) == SQLITE_ROW) {
+        ++versions;
+        newest = st.ColumnInt(0);
+        if (!DecodeHeader(st.ColumnText(1), &settings, &queues)) {
+          f.Add("the header of version " + std::to_string(newest) +
+                " does not decode");
+        }
+      }
+      if (rc != SQLITE_DONE) return Error();
+    }
+    if (versions == 0) {
+      f.Finish("no version recorded yet (a store upgraded and not yet opened)");
+      return Status::Ok();
+    }
+    std::unordered_set<int64_t> ledger_ids;
+    {
+      sql::Statement st(db_, "SELECT id FROM ledger");
+      if (!st.ok()) return Error();
+      while (st.Step() == SQLITE_ROW) ledger_ids.insert(st.ColumnInt(0));
+    }
+    int64_t from = 0;
+    std::vector<std::pair<int64_t, int64_t>> members;
+    {
+      sql::Statement st(db_, "SELECT version, members FROM snapshots ORDER BY version");
+      if (!st.ok()) return Error();
+      std::vector<std::pair<int64_t, int64_t>> decoded;
+      int rc;
+      while ((rc = st.Step()) == SQLITE_ROW) {
+        int64_t v = st.ColumnInt(0);
+        if (!DecodeMembers(st.ColumnBlob(1), &decoded)) {
+          f.Add("the snapshot of version " + std::to_string(v) + " does not decode");
+          continue;
+        }
+        for (const auto& [id, queue] : decoded) {
+          if (!ledger_ids.count(id)) {
+            f.Add("the snapshot of version " + std::to_string(v) +
+                  " names ledger id " + std::to_string(id) + ", which the ledger does not hold");
+            break;
+          }
+        }
+        from = v;
+        members = decoded;
+      }
+      if (rc != SQLITE_DONE) return Error();
+    }
+    std::map<int64_t, int64_t> replay(members.begin(), members.end());
+    {
+      sql::Statement st(db_,
+                        "SELECT version, document, to_queue FROM changes "
+                        "ORDER BY version, rowid");
+      if (!st.ok()) return Error();
+      int rc;
+      while ((rc = st.Step()) == SQLITE_ROW) {
+        int64_t v = st.ColumnInt(0), id = st.ColumnInt(1);
+        if (!ledger_ids.count(id)) {
+          f.Add("the change log of version " + std::to_string(v) + " names ledger id " +
+                std::to_string(id) + ", which the ledger does not hold");
+        }
+        if (v <= from) continue;
+        if (st.ColumnIsNull(2)) {
+          replay.erase(id);
+        } else {
+          replay[id] = st.ColumnInt(2);
+        }
+      }
+      if (rc != SQLITE_DONE) return Error();
+    }
+    std::vector<std::pair<int64_t, int64_t>> replayed(replay.begin(), replay.end());
+    if (replayed != members_) {
+      f.Add("replaying the history to version " + std::to_string(newest) + " gives " +
+            Plural(static_cast<int64_t>(replayed.size()), "document", "documents") +
+            " in the model, the ledger has " +
+            Plural(static_cast<int64_t>(members_.size()), "document", "documents") +
+            " in it (or the same number in other queues)");
+    }
+    f.Finish("the history of " + Plural(versions, "version", "versions") +
+             " replays to the current model's documents and queues");
+    return Status::Ok();
+  }
+
+  // The newest version's fingerprint is the current model's.
+  Status Fingerprint() {
+    Findings f(report_, "fingerprint");
+    sql::Statement st(db_, "SELECT id, fingerprint FROM versions ORDER BY id DESC LIMIT 1");
+    if (!st.ok()) return Error();
+    if (st.Step() != SQLITE_ROW) {
+      f.Finish("no version recorded yet");
+      return Status::Ok();
+    }
+    const int64_t version = st.ColumnInt(0);
+    const std::string recorded(st.ColumnText(1));
+    if (!settings_ok_) {
+      f.Add("the fingerprint cannot be computed without usable settings");
+      f.Finish("");
+      return Status::Ok();
+    }
+    ModelCounts counts;
+    std::map<int64_t, size_t> column;
+    for (const auto& [id, q] : queues_) {
+      if (q.retired) continue;
+      column[id] = counts.queues.size();
+      counts.queues.push_back({q.name, q.documents, q.tokens, q.set_prior});
+    }
+    std::sort(model_rows_.begin(), model_rows_.end(),
+              [](const ModelRow& a, const ModelRow& b) { return *a.term < *b.term; });
+    const size_t nq = counts.queues.size();
+    for (const ModelRow& r : model_rows_) {
+      auto c = column.find(r.queue_id);
+      if (c == column.end()) continue;  // a retired queue's count: counts_match_ledger
+      if (counts.terms.empty() || counts.terms.back() != *r.term) {
+        counts.terms.push_back(*r.term);
+        counts.counts.resize(counts.counts.size() + nq, 0);
+      }
+      counts.counts[(counts.terms.size() - 1) * nq + c->second] = r.n;
+    }
+    std::string actual = ModelFingerprint(settings_, counts);
+    if (actual != recorded) {
+      f.Add("the model's fingerprint is " + actual + ", version " + std::to_string(version) +
+            " recorded " + recorded);
+    }
+    f.Finish("the model's fingerprint is the one version " + std::to_string(version) +
+             " recorded (" + recorded.substr(0, 12) + ")");
+    return Status::Ok();
+  }
+
+  struct ModelRow {
+    const std::string* term;
+    int64_t queue_id;
+    int64_t n;
+  };
+
   sqlite3* db_;
   CheckReport* report_;
+  StoreSettings settings_;
+  bool settings_ok_ = false;
+  std::vector<std::pair<int64_t, int64_t>> members_;  // in_model: (ledger id, queue id)
+  std::vector<ModelRow> model_rows_;                  // positive counts
   std::map<int64_t, QueueRow> queues_;  // by id
   std::unordered_map<std::string, int64_t> term_id_;
   std::map<int64_t, std::string> term_text_;

@@ -32,7 +32,13 @@ namespace chute {
 //   queue_totals         each queue's documents and tokens equal its ledger
 //                        entries' number and summed tokens
 //   counts_match_ledger  each count N(q, w) equals the sum over the queue's
-//                        ledger entries of their counts of w
+//                        ledger entries in the model of their counts of w
+//   history              every version header and snapshot decodes, the
+//                        change log and snapshots name only documents the
+//                        ledger holds, and replaying them gives the current
+//                        model's documents, each in its queue
+//   fingerprint          the fingerprint of the model (fingerprint.h)
+//                        equals the one the newest version recorded
 struct CheckLine {
   std::string check;
   bool ok = true;

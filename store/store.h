@@ -23,6 +23,7 @@
 #include "store/status.h"
 #include "store/store_settings.h"
 #include "store/term_counts_codec.h"
+#include "store/version_codec.h"
 
 namespace chute {
 
@@ -94,14 +95,6 @@ struct VersionInfo {
   int64_t removed = 0;  // documents that left the model
   std::string fingerprint;  // fingerprint.h, of the model after the change
   std::string details;      // JSON kept with the version (promote), or empty
-};
-
-// A queue as a version's header recorded it.
-struct VersionQueue {
-  int64_t id = 0;
-  std::string name;
-  std::optional<double> set_prior;
-  bool retired = false;
 };
 
 // What the model of a version was made of: its settings, its queues and

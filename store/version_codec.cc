@@ -1,4 +1,3 @@
-// Encodings of a version's membership and header (version_codec.h).
 #include "store/version_codec.h"
 
 #include <charconv>

@@ -1,32 +1,38 @@
-// The encodings a version's history is kept in (schema.h: versions,
-// snapshots, candidate): a membership blob and a header of settings and
-// queues. Shared by the version log, the rebuild and the candidate.
+// The encodings of the version history (schema.h: versions.header and
+// snapshots.members), shared by the store and its check.
 #ifndef CHUTE_STORE_VERSION_CODEC_H_
 #define CHUTE_STORE_VERSION_CODEC_H_
 
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <string_view>
 #include <utility>
 #include <vector>
 
-#include "store/store.h"
 #include "store/store_settings.h"
 
 namespace chute {
 
-// Members (ledger id, queue id), sorted by ledger id and distinct, as
-// varint(id - previous id) varint(queue id), LEB128 varints (common
-// practice; as in Protocol Buffers).
+// A queue as a version's header recorded it.
+struct VersionQueue {
+  int64_t id = 0;
+  std::string name;
+  std::optional<double> set_prior;
+  bool retired = false;
+};
+
+// Members (ledger id, queue id), REQUIRES: sorted by ledger id, distinct,
+// ids > 0; encoded as LEB128 varint(id - previous id) varint(queue id).
 std::string EncodeMembers(const std::vector<std::pair<int64_t, int64_t>>& members);
-// False on a malformed blob.
+// False for a malformed blob (a varint cut short, ids not increasing).
 bool DecodeMembers(std::string_view blob, std::vector<std::pair<int64_t, int64_t>>* out);
 
-// Settings and queues, one per line:
+// A version's header, one line per setting and per queue:
 //   s <key> <value>
 //   q <id> <retired 0|1> <hand-set prior or -> <name>
 std::string EncodeHeader(const StoreSettings& settings, const std::vector<VersionQueue>& queues);
-// False on a malformed header or settings chute cannot use.
+// False when a line is malformed or the settings do not decode.
 bool DecodeHeader(std::string_view text, StoreSettings* settings,
                   std::vector<VersionQueue>* queues);
 

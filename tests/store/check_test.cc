@@ -25,7 +25,7 @@ using testing_files::WriteFile;
 const std::set<std::string> kAllChecks = {
     "sqlite_integrity", "foreign_keys",       "settings",        "queue_names",
     "ledger_blobs",     "ledger_tokens",      "counts_positive", "vocabulary",
-    "queue_totals",     "counts_match_ledger"};
+    "queue_totals",     "counts_match_ledger", "history",       "fingerprint"};
 
 std::string Digest(unsigned n) {
   char buf[65];
@@ -151,7 +151,7 @@ TEST_F(CheckTest, CountNamingAMissingQueueIsAnOrphan) {
 TEST_F(CheckTest, UnusableSettingFailsSettings) {
   Damage("UPDATE settings SET value = 'sometimes' WHERE key = 'bigrams'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"settings"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"settings", "fingerprint"}))
       << Findings(report);
   EXPECT_NE(Findings(report).find("bigrams"), std::string::npos);
 }
@@ -159,14 +159,14 @@ TEST_F(CheckTest, UnusableSettingFailsSettings) {
 TEST_F(CheckTest, MissingSettingFailsSettings) {
   Damage("DELETE FROM settings WHERE key = 'alpha'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"settings"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"settings", "fingerprint"}))
       << Findings(report);
 }
 
 TEST_F(CheckTest, HandSetPriorsAboveOneFailSettings) {
   Damage("UPDATE queues SET set_prior = 0.6");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"settings"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"settings", "fingerprint"}))
       << Findings(report);
   EXPECT_NE(Findings(report).find("sum to more than 1"), std::string::npos);
 }
@@ -174,7 +174,7 @@ TEST_F(CheckTest, HandSetPriorsAboveOneFailSettings) {
 TEST_F(CheckTest, InvalidQueueNameFailsQueueNames) {
   Damage("UPDATE queues SET name = '_review' WHERE name = 'freight'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"queue_names"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"queue_names", "fingerprint"}))
       << Findings(report);
 }
 
@@ -194,7 +194,7 @@ TEST_F(CheckTest, LedgerTokensUnlikeItsTermsFailLedgerTokens) {
          "';"
          "UPDATE queues SET tokens = tokens + 1 WHERE name = 'freight'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"ledger_tokens"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"ledger_tokens", "fingerprint"}))
       << Findings(report);
 }
 
@@ -233,14 +233,14 @@ TEST_F(CheckTest, TermWithoutCountsFailsVocabulary) {
 TEST_F(CheckTest, QueueDocumentsUnlikeTheLedgerFailQueueTotals) {
   Damage("UPDATE queues SET documents = documents + 1 WHERE name = 'permits'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"queue_totals"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"queue_totals", "fingerprint"}))
       << Findings(report);
 }
 
 TEST_F(CheckTest, QueueTokensUnlikeTheLedgerFailQueueTotals) {
   Damage("UPDATE queues SET tokens = tokens - 1 WHERE name = 'freight'");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"queue_totals"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"queue_totals", "fingerprint"}))
       << Findings(report);
 }
 
@@ -251,7 +251,7 @@ TEST_F(CheckTest, CountUnlikeTheLedgerFailsCountsMatchLedger) {
       "'permit') AND queue_id = (SELECT id FROM queues WHERE name = "
       "'freight')");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"counts_match_ledger"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"counts_match_ledger", "fingerprint"}))
       << Findings(report);
   EXPECT_NE(Findings(report).find(
                 "the counts say 2, the queue's ledger entries sum to 1"),
@@ -266,7 +266,7 @@ TEST_F(CheckTest, CountRowMissingFailsCountsMatchLedger) {
       "'permit') "
       "AND queue_id = (SELECT id FROM queues WHERE name = 'freight')");
   CheckReport report = Check();
-  EXPECT_EQ(Failing(report), std::set<std::string>{"counts_match_ledger"})
+  EXPECT_EQ(Failing(report), (std::set<std::string>{"counts_match_ledger", "fingerprint"}))
       << Findings(report);
   EXPECT_NE(Findings(report).find("the counts have no row"), std::string::npos);
 }
