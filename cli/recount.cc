@@ -4,6 +4,7 @@
 #include <chrono>
 #include <memory>
 #include <optional>
+#include <unordered_map>
 #include <vector>
 
 #include "cli/parallel.h"
@@ -111,6 +112,129 @@ Status CatchUpRecount(Store* store, size_t threads) {
   auto tokenizers = MakeTokenizers(info->settings.tokenizer, threads);
   RebuildOutcome ignored;
   return CatchUp(store, store, tokenizers, kRecountBatch, &ignored);
+}
+
+Status RollbackAcrossTokenizing(Store* store, int64_t v, const ChangeInfo& change,
+                                size_t threads, RollbackResult* result) {
+  VersionState state;
+  Status s = store->LoadVersionState(v, &state);
+  if (!s.ok()) return s;
+  int64_t documents = 0, without_text = 0;
+  if (s = store->CountKeptTexts(&documents, &without_text); !s.ok()) return s;
+  if (without_text > 0) {
+    return Status::InvalidArgument(
+        "version " + std::to_string(v) + " tokenized with other settings, and " +
+        std::to_string(without_text) + " of " + std::to_string(documents) +
+        " learned documents have no kept text to recount; nothing was changed");
+  }
+  RebuildRequest request;
+  request.target = state.settings;
+  request.target.keep_text = store->settings().keep_text;
+  request.threads = threads;
+  request.change = change;
+  int64_t base = 0;
+  bool replaced = false;
+  if (s = store->BeginRecount(request.target, change, &base, &replaced); !s.ok()) return s;
+  auto tokenizers = MakeTokenizers(request.target.tokenizer, threads);
+  RebuildOutcome ignored;
+  s = RecountLedger(store, request, tokenizers, &ignored);
+  if (s.ok()) {
+    Tokenizer& tokenizer = *tokenizers[0];
+    s = store->RollbackWithRecount(
+        v, change,
+        [&](const std::string& text, RecountedDocument* doc) {
+          return RecountText(&tokenizer, text, doc);
+        },
+        result);
+  }
+  if (!s.ok()) store->DiscardRecount();
+  return s;
+}
+
+Status RecountedModelAtVersion(Store* store, int64_t v, size_t threads, VersionInfo* info,
+                               StoreSettings* settings, ModelCounts* out) {
+  *out = ModelCounts();
+  VersionState state;
+  Status s = store->LoadVersionState(v, &state);
+  if (!s.ok()) return s;
+  std::vector<const VersionQueue*> live;
+  for (const VersionQueue& q : state.queues) {
+    if (!q.retired) live.push_back(&q);
+  }
+  std::sort(live.begin(), live.end(),
+            [](const VersionQueue* a, const VersionQueue* b) { return a->name < b->name; });
+  std::unordered_map<int64_t, size_t> column;
+  for (const VersionQueue* q : live) {
+    column[q->id] = out->queues.size();
+    out->queues.push_back({q->name, 0, 0, q->set_prior});
+  }
+  const size_t nq = out->queues.size();
+  std::unordered_map<int64_t, size_t> column_of_member;
+  std::vector<int64_t> ids;
+  for (const auto& [id, queue] : state.members) {
+    auto c = column.find(queue);
+    if (c == column.end()) {
+      return Status::Corruption(store->path() + ": version " + std::to_string(v) +
+                                " counts a document in a queue its header does not list");
+    }
+    column_of_member[id] = c->second;
+    ids.push_back(id);
+  }
+  auto tokenizers = MakeTokenizers(state.settings.tokenizer, threads);
+  std::unordered_map<std::string, size_t> row_of;
+  std::vector<std::string> terms;
+  std::vector<int64_t> sums;
+  std::vector<std::pair<int64_t, std::string>> texts;
+  std::vector<RecountedDocument> docs;
+  int64_t without_text = 0, read = 0;
+  for (size_t start = 0; s.ok() && start < ids.size(); start += kRecountBatch) {
+    const std::vector<int64_t> window(
+        ids.begin() + static_cast<ptrdiff_t>(start),
+        ids.begin() + static_cast<ptrdiff_t>(std::min(ids.size(), start + kRecountBatch)));
+    texts.clear();
+    s = store->ReadTextsOf(window, [&](int64_t id, const std::optional<std::string>& text) {
+      ++read;
+      if (text) {
+        texts.emplace_back(id, *text);
+      } else {
+        ++without_text;
+      }
+      return Status::Ok();
+    });
+    if (!s.ok() || without_text > 0) break;
+    if (s = RecountBatch(texts, tokenizers, &docs); !s.ok()) break;
+    for (RecountedDocument& d : docs) {
+      const size_t col = column_of_member.at(d.ledger_id);
+      ++out->queues[col].documents;
+      out->queues[col].tokens += d.tokens;
+      for (auto& [term, n] : d.terms) {
+        auto [it, inserted] = row_of.emplace(std::move(term), terms.size());
+        if (inserted) {
+          terms.push_back(it->first);
+          sums.resize(sums.size() + nq, 0);
+        }
+        sums[it->second * nq + col] += n;
+      }
+    }
+  }
+  if (!s.ok()) return s;
+  if (without_text > 0 || read != static_cast<int64_t>(ids.size())) {
+    return Status::InvalidArgument(
+        "version " + std::to_string(v) +
+        " tokenized with other settings, and some of its documents have no kept text to "
+        "recount (purged, or not kept)");
+  }
+  std::vector<size_t> order(terms.size());
+  for (size_t i = 0; i < order.size(); ++i) order[i] = i;
+  std::sort(order.begin(), order.end(), [&](size_t a, size_t b) { return terms[a] < terms[b]; });
+  for (size_t r : order) {
+    out->terms.push_back(std::move(terms[r]));
+    out->counts.insert(out->counts.end(), sums.begin() + static_cast<ptrdiff_t>(r * nq),
+                       sums.begin() + static_cast<ptrdiff_t>((r + 1) * nq));
+  }
+  *info = state.info;
+  *settings = state.settings;
+  return Status::Ok();
 }
 
 Status RecountText(Tokenizer* tokenizer, const std::string& text, RecountedDocument* doc) {

@@ -52,6 +52,22 @@ Status Rebuild(Store* store, const RebuildRequest& request, RebuildOutcome* out)
 // the recount was written (a candidate's recount falls behind the store).
 Status CatchUpRecount(Store* store, size_t threads);
 
+// Rollback to version v when a rebuild changed the tokenizing settings
+// since (Store::Rollback refuses that): every ledger document is recounted
+// with v's settings from its kept text, beside the current model, then the
+// recount is swapped in and the model made v's in one transaction, as one
+// version "rollback". Replaces any candidate. Fails with InvalidArgument,
+// changing nothing, when some documents have no kept text.
+Status RollbackAcrossTokenizing(Store* store, int64_t v, const ChangeInfo& change,
+                                size_t threads, RollbackResult* result);
+
+// The counts of version v's model when its tokenizing settings are not the
+// store's: its members recounted in memory from their kept texts with v's
+// settings (read-only; for route --at-version). InvalidArgument naming how
+// many members have no kept text.
+Status RecountedModelAtVersion(Store* store, int64_t v, size_t threads, VersionInfo* info,
+                               StoreSettings* settings, ModelCounts* out);
+
 // One document's term counts under tokenizer: terms sorted by bytes with
 // their counts. InvalidArgument when the text gives no term.
 Status RecountText(Tokenizer* tokenizer, const std::string& text, RecountedDocument* doc);

@@ -365,6 +365,14 @@ class Store {
   // Drops the recount and any candidate (one transaction).
   Status DiscardRecount();
 
+  // Rollback to a version v whose tokenizing settings are not the store's
+  // (a rebuild changed them since): with a recount begun with v's settings
+  // (BeginRecount) and written, swaps it in and makes the model v's
+  // (ApplyState), as one version "rollback" in one transaction.
+  // InvalidArgument when the recount's tokenizing is not v's.
+  Status RollbackWithRecount(int64_t v, const ChangeInfo& change, const RecountFunction& recount,
+                             RollbackResult* result);
+
   // --- Candidates (store_candidate.cc) ---
   //
   // Makes the candidate a rebuild's: its settings, the current queues and
@@ -457,6 +465,7 @@ class Store {
   // The side tables' part of Forget: the document's recount leaves them.
   Status ForgetRecountInTransaction(int64_t ledger_id);
   Status WriteRecountedInTransaction(const std::vector<RecountedDocument>& docs);
+  // With an empty command, records no version (the caller records one).
   Status SwapRecountInTransaction(const std::string& command, const ChangeInfo& change,
                                   const std::string& details, const RecountFunction& recount,
                                   SwapResult* result);

@@ -508,9 +508,40 @@ Status Store::SwapRecountInTransaction(const std::string& command, const ChangeI
                 "DELETE FROM rebuild; DELETE FROM candidate;");
   if (!s.ok()) return Status::IoError(path_ + ": " + s.message());
   if (s = SaveSettingsInTransaction(info->settings); !s.ok()) return s;
+  if (command.empty()) return Status::Ok();
   VersionDelta delta;
   delta.details = details;
   return RecordVersionInTransaction(command, change, delta, &result->made);
+}
+
+Status Store::RollbackWithRecount(int64_t v, const ChangeInfo& change,
+                                  const RecountFunction& recount, RollbackResult* result) {
+  *result = RollbackResult();
+  {
+    sql::Transaction tx(db_.get());
+    if (!tx.status().ok()) return Status::Busy(path_ + ": " + tx.status().message());
+    VersionState target;
+    Status s = LoadVersionState(v, &target);
+    if (!s.ok()) return s;
+    std::optional<RecountInfo> info;
+    if (s = LoadRecount(&info); !s.ok()) return s;
+    if (!info || !SameTokenizing(info->settings, target.settings)) {
+      return Status::InvalidArgument(path_ + ": no recount with the tokenizing settings of version " +
+                                     std::to_string(v) + " is ready");
+    }
+    SwapResult swap;
+    s = SwapRecountInTransaction("", change, "", recount, &swap);
+    if (s.ok()) {
+      s = ApplyStateInTransaction(target, "rollback", change,
+                                  "{\"rollback_to\":" + std::to_string(v) + ",\"recounted\":true}",
+                                  result);
+    }
+    if (!s.ok()) return s;
+    s = tx.Commit();
+    if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
+  }
+  DropRecountLeftovers();
+  return Status::Ok();
 }
 
 Status Store::ChangeModelSettings(const StoreSettings& settings, const std::string& command,

@@ -15,7 +15,6 @@
 #include <vector>
 
 #include "store/fingerprint.h"
-#include "store/version_codec.h"
 #include "store/store.h"
 #include "store/term_counts_codec.h"
 #include "store/version_codec.h"
