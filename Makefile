@@ -10,7 +10,7 @@ CMAKE_EXTRA_FLAGS ?=
 
 BUILD_PACKAGES = cmake g++ make pkg-config libicu-dev libsqlite3-dev \
                  libcli11-dev libgtest-dev libgmock-dev libssl-dev libcsv-dev \
-                 libxml2-dev python3 nlohmann-json3-dev
+                 libxml2-dev python3 nlohmann-json3-dev libzstd-dev
 # Outside references used by the tests (see README, "How chute is checked").
 TEST_PACKAGES  = python3-sklearn unicode-data r-cran-tm groff-base manpages \
                  manpages-dev python3-lxml chromium

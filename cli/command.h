@@ -36,6 +36,7 @@ CommandRun SetupForget(CLI::App* command);
 CommandRun SetupCorrect(CLI::App* command);
 CommandRun SetupRebuild(CLI::App* command);
 CommandRun SetupPromote(CLI::App* command);
+CommandRun SetupPurge(CLI::App* command);
 
 }  // namespace chute
 

@@ -13,6 +13,7 @@
 #include "cli/read/csv_records.h"
 #include "cli/read/document_name.h"
 #include "store/queue_name.h"
+#include "store/text_codec.h"
 #include "tokenize/tokenizer.h"
 
 namespace chute {
@@ -148,6 +149,7 @@ int RunCorrect(const CorrectOptions& o) {
   }
 
   Tokenizer tokenizer(store->settings().tokenizer);
+  TextCodec codec;  // packs the text of documents learned here, when kept
   std::vector<Line> lines;
   std::vector<CorrectMove> moves;
   std::vector<size_t> line_of_move;
@@ -220,10 +222,18 @@ int RunCorrect(const CorrectOptions& o) {
         refuse("not learned, and no terms to learn");
         continue;
       }
+      std::string packed_text;
+      if (store->settings().keep_text) {
+        if (Status p = codec.Pack(nd.document.text, &packed_text); !p.ok()) {
+          refuse(p.message());
+          continue;
+        }
+      }
       line.digest = nd.document.digest;
       line.outcome = "learned";
       line.reason = "was not learned before";
-      batch.Add(nd.document.digest, line.to, SourcePath(nd.path), terms);
+      batch.Add(nd.document.digest, line.to, SourcePath(nd.path), terms,
+                std::move(packed_text));
       line_of_batch_doc.push_back(lines.size());
       lines.push_back(line);
     } else {

@@ -36,7 +36,8 @@ int RunInit(const InitOptions& o) {
         (st.tokenizer.bigrams ? "on" : "off") + ", numbers " +
         (st.tokenizer.numbers == NumberMode::kFold ? "fold" : "keep") + ", terms of " +
         std::to_string(st.tokenizer.min_length) + " to " +
-        std::to_string(st.tokenizer.max_length) + " characters)\n");
+        std::to_string(st.tokenizer.max_length) + " characters, keep text " +
+        (st.keep_text ? "on" : "off") + ")\n");
   return kExitDone;
 }
 
@@ -67,11 +68,17 @@ CommandRun SetupInit(CLI::App* cmd) {
   cmd->add_option("--max-length", st.tokenizer.max_length,
                   "drop terms longer than this many characters (default 64)")
       ->check(CLI::Range(1, 1000));
-  cmd->footer(R"(The settings are fixed for the life of the store.
+  AddChoiceOption<bool>(cmd, "--keep-text", &st.keep_text, {{"on", true}, {"off", false}},
+                        "keep each learned document's text, compressed, so that a later "
+                        "rebuild can count it again under new settings (default on)");
+  cmd->footer(R"(The settings are fixed for the life of the store. With --keep-text off the
+store keeps no text: a later rebuild can change the smoothing and priors, but
+not the tokenizer settings, and takes less room.
 
 Examples:
   chute init --db harbour.db
-  chute init --db harbour.db --alpha 0.5 --bigrams on --numbers fold)");
+  chute init --db harbour.db --alpha 0.5 --bigrams on --numbers fold
+  chute init --db harbour.db --keep-text off)");
   return [o] { return RunInit(*o); };
 }
 

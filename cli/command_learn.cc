@@ -13,6 +13,7 @@
 #include "cli/parallel.h"
 #include "cli/read/document_reader.h"
 #include "cli/read/labelled_inputs.h"
+#include "store/text_codec.h"
 #include "tokenize/tokenizer.h"
 
 namespace chute {
@@ -128,14 +129,20 @@ int RunLearn(const LearnOptions& o) {
 
   // Workers read and tokenize a window of documents while this thread takes
   // the previous window's results, in input order.
+  // When the store keeps text, the workers also pack it, so that the store's
+  // transaction only binds a blob.
+  const bool keep_text = store->settings().keep_text;
   std::vector<std::unique_ptr<Tokenizer>> tokenizers;
+  std::vector<std::unique_ptr<TextCodec>> codecs;
   for (size_t w = 0; w < o.threads; ++w) {
     tokenizers.push_back(std::make_unique<Tokenizer>(store->settings().tokenizer));
+    codecs.push_back(std::make_unique<TextCodec>());
   }
   struct Slot {
     Status status;
     Document doc;
     std::vector<std::string> terms;
+    std::string packed_text;  // empty unless kept
   };
   std::vector<Slot> windows[2] = {std::vector<Slot>(kParallelWindow),
                                   std::vector<Slot>(kParallelWindow)};
@@ -148,15 +155,22 @@ int RunLearn(const LearnOptions& o) {
     ParallelFor(count, o.threads, [&, start, buffer](size_t i, size_t worker) {
       Slot& slot = windows[buffer][i];
       slot.terms.clear();
+      slot.packed_text.clear();
       slot.status = ReadDocument(files[start + i].path, read_options, &slot.doc);
       if (slot.status.ok()) tokenizers[worker]->Tokenize(slot.doc.text, &slot.terms);
+      if (slot.status.ok() && keep_text && !slot.terms.empty()) {
+        Status packed = codecs[worker]->Pack(slot.doc.text, &slot.packed_text);
+        if (!packed.ok()) {
+          slot.status = Status::IoError(files[start + i].path + ": " + packed.message());
+        }
+      }
     });
   };
   auto consume = [&](size_t start, size_t count, int buffer) -> bool {
     for (size_t i = 0; i < count; ++i) {
       progress.Tick();
       const LabelledFile& f = files[start + i];
-      const Slot& slot = windows[buffer][i];
+      Slot& slot = windows[buffer][i];
       const Document& doc = slot.doc;
       const std::string where = f.context.empty() ? f.path : f.context + ": " + f.path;
       if (!slot.status.ok()) {
@@ -187,7 +201,8 @@ int RunLearn(const LearnOptions& o) {
         lines.push_back({f.path, f.queue, doc.digest, "refused", reason});
         continue;
       }
-      batch.Add(doc.digest, f.queue, SourcePath(f.path), slot.terms);
+      batch.Add(doc.digest, f.queue, SourcePath(f.path), slot.terms,
+                std::move(slot.packed_text));
       line_of_batch_doc.push_back(lines.size());
       lines.push_back({f.path, f.queue, doc.digest, "learned", ""});
     }

@@ -35,6 +35,7 @@ std::vector<std::pair<std::string, std::string>> SettingsRows(const StoreSetting
       {"numbers", s.tokenizer.numbers == NumberMode::kFold ? "fold" : "keep"},
       {"min_length", std::to_string(s.tokenizer.min_length)},
       {"max_length", std::to_string(s.tokenizer.max_length)},
+      {"keep_text", s.keep_text ? "on" : "off"},
       {"vocabulary", std::to_string(vocabulary)},
   };
 }
@@ -50,6 +51,7 @@ int PrintSettings(const StoreSettings& s, int64_t vocabulary, OutputFormat forma
     w.Key("numbers").String(rows[3].second);
     w.Key("min_length").Int(s.tokenizer.min_length);
     w.Key("max_length").Int(s.tokenizer.max_length);
+    w.Key("keep_text").Bool(s.keep_text);
     w.Key("vocabulary").Int(vocabulary);
     Print(w.EndObject().Take() + "\n");
   } else if (format == OutputFormat::kCsv) {

@@ -30,6 +30,8 @@ constexpr chute::Command kCommands[] = {
      chute::SetupRebuild},
     {"promote", "make the candidate the current model if it is not worse on held-out documents",
      chute::SetupPromote},
+    {"purge", "erase the kept text and source paths of documents learned before a time",
+     chute::SetupPurge},
     {"queues", "list the queues, their documents, terms and priors; set priors",
      chute::SetupQueues},
     {"terms-of", "print the terms chute counts for a document", chute::SetupTermsOf},

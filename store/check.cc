@@ -15,6 +15,7 @@
 #include "store/store_settings.h"
 #include "store/term_counts_codec.h"
 #include "store/version_codec.h"
+#include "store/text_codec.h"
 
 namespace chute {
 
@@ -216,16 +217,27 @@ class Checker {
   Status Ledger() {
     Findings blobs(report_, "ledger_blobs");
     Findings tokens(report_, "ledger_tokens");
+    Findings texts(report_, "ledger_text");
     sql::Statement st(
         db_,
-        "SELECT digest, queue_id, tokens, term_counts, in_model, id FROM ledger "
+        "SELECT digest, queue_id, tokens, term_counts, in_model, id, text FROM ledger "
         "ORDER BY id");
     if (!st.ok()) return Error();
     std::vector<TermCount> terms;
+    TextCodec codec;
+    std::string kept_text;
+    int64_t kept = 0;
     int rc;
     while ((rc = st.Step()) == SQLITE_ROW) {
       ++report_->documents;
       std::string digest(st.ColumnText(0));
+      if (!st.ColumnIsNull(6)) {
+        ++kept;
+        if (Status u = codec.Unpack(st.ColumnBlob(6), &kept_text); !u.ok()) {
+          texts.Add("the kept text of ledger entry " + digest +
+                    " does not unpack: " + u.message());
+        }
+      }
       int64_t queue_id = st.ColumnInt(1);
       int64_t doc_tokens = st.ColumnInt(2);
       const bool in_model = st.ColumnInt(4) != 0;
@@ -270,6 +282,9 @@ class Checker {
                                  "ledger entries decode"));
     tokens.Finish(
         "each ledger entry's tokens equal the sum of its term counts");
+    texts.Finish("all " + Plural(kept, "kept text unpacks", "kept texts unpack") +
+                 " (" + Plural(report_->documents - kept, "entry keeps", "entries keep") +
+                 " no text)");
     return Status::Ok();
   }
 

@@ -24,6 +24,9 @@ namespace chute {
 //                        priors are in (0, 1) and sum to at most 1
 //   queue_names          every queue name is valid (queue_name.h)
 //   ledger_blobs         every ledger entry's term counts decode
+//   ledger_text          every kept text (ledger.text) unpacks: a whole
+//                        zstd frame whose content matches its size and
+//                        checksum (text_codec.h)
 //   ledger_tokens        each ledger entry's token count equals the sum of
 //                        its term counts
 //   counts_positive      no count row is zero or negative
@@ -64,7 +67,7 @@ inline constexpr int kMaxFindingsPerCheck = 20;
 // error. Returns an error only when the file cannot be checked at all (no
 // such file, not a chute store, a newer schema, an I/O error); everything
 // found wrong inside is in *report. Cost: reads every row of every table
-// and decodes every ledger blob once; memory in the number of distinct
+// and decodes every ledger blob and kept text once; memory in the number of distinct
 // (queue, term) pairs.
 Status CheckStore(const std::string& path, CheckReport* report);
 

@@ -5,8 +5,9 @@
 namespace chute {
 
 void LearnBatch::Add(std::string digest, std::string queue, std::string source,
-                     const std::vector<std::string>& terms) {
-  Document doc{std::move(digest), std::move(queue), std::move(source), {}, 0};
+                     const std::vector<std::string>& terms, std::string packed_text) {
+  Document doc{std::move(digest), std::move(queue), std::move(source), {}, 0,
+               std::move(packed_text)};
   std::vector<uint32_t> ids;
   ids.reserve(terms.size());
   for (const std::string& t : terms) ids.push_back(terms_.Insert(t));

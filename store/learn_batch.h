@@ -23,11 +23,15 @@ class LearnBatch {
     // (batch term id, count), sorted by term id; counts > 0.
     std::vector<std::pair<uint32_t, int64_t>> counts;
     int64_t tokens = 0;  // sum of counts
+    // The text that was tokenized, packed by TextCodec (text_codec.h) on
+    // the thread that tokenized it; empty when the text is not kept.
+    std::string packed_text;
   };
 
-  // Adds a document with its terms in any order. REQUIRES: terms not empty.
+  // Adds a document with its terms in any order, and its packed text (empty
+  // when not kept). REQUIRES: terms not empty.
   void Add(std::string digest, std::string queue, std::string source,
-           const std::vector<std::string>& terms);
+           const std::vector<std::string>& terms, std::string packed_text = {});
 
   const std::vector<Document>& documents() const { return documents_; }
   std::string_view term(uint32_t id) const { return terms_.term(id); }

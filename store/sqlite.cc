@@ -85,6 +85,13 @@ Status Exec(sqlite3* db, const char* sql) {
   return Status::Ok();
 }
 
+bool CheckpointTruncate(sqlite3* db) {
+  // The row is (busy, log frames, frames checkpointed); busy = 1 means the
+  // checkpoint could not finish.
+  Statement checkpoint(db, "PRAGMA wal_checkpoint(TRUNCATE)");
+  return checkpoint.ok() && checkpoint.Step() == SQLITE_ROW && checkpoint.ColumnInt(0) == 0;
+}
+
 Transaction::Transaction(sqlite3* db) : db_(db) {
   status_ = Exec(db, "BEGIN IMMEDIATE");
   open_ = status_.ok();

@@ -62,6 +62,15 @@ class Statement {
 // Runs SQL without parameters (schema, PRAGMA, BEGIN/COMMIT).
 Status Exec(sqlite3* db, const char* sql);
 
+// Copies every page of the write-ahead log back into the database file and
+// truncates the log to zero bytes, so that the log no longer holds pages as
+// they were before a change (SQLite, "Write-Ahead Logging" and "PRAGMA
+// wal_checkpoint", sqlite.org/wal.html). TRUNCATE waits for readers through
+// the busy handler. Returns false when it could not finish (other
+// connections kept reading) or failed; the old pages then stay in the log
+// until the next checkpoint. Call outside any transaction.
+bool CheckpointTruncate(sqlite3* db);
+
 // A Status from SQLite's last error on db, prefixed with what was done.
 Status ErrorStatus(sqlite3* db, std::string_view what);
 

@@ -469,11 +469,11 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
     // again under its ledger id, so that the change log follows it.
     sql::Statement add(db,
                        "INSERT INTO ledger(digest, queue_id, source, learned_at, tokens, "
-                       "term_counts) VALUES(?, ?, ?, ?, ?, ?) "
+                       "term_counts, text) VALUES(?, ?, ?, ?, ?, ?, ?) "
                        "ON CONFLICT(digest) DO UPDATE SET queue_id = excluded.queue_id, "
                        "source = excluded.source, learned_at = excluded.learned_at, "
                        "tokens = excluded.tokens, term_counts = excluded.term_counts, "
-                       "in_model = 1 RETURNING id");
+                       "text = excluded.text, in_model = 1 RETURNING id");
     if (!add.ok()) return Status::IoError(path_ + ": " + add.error());
     std::vector<std::pair<uint32_t, int64_t>> ranked;
     std::vector<std::pair<std::string_view, int64_t>> own;
@@ -491,7 +491,14 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
           .Bind(3, d.source)
           .Bind(4, now)
           .Bind(5, d.tokens)
-          .BindBlob(6, EncodeTermCounts(own));
+          .BindBlob(6, EncodeTermCounts(own));  // copied (SQLITE_TRANSIENT)
+      // The text packed on the tokenizing thread; NULL when not kept (a
+      // store set to keep no text keeps none, whatever the caller packed).
+      if (settings_.keep_text && !d.packed_text.empty()) {
+        add.BindBlob(7, d.packed_text);
+      } else {
+        add.BindNull(7);
+      }
       if (add.Step() != SQLITE_ROW) return fail(sql::ErrorStatus(db, path_));
       const int64_t ledger_id = add.ColumnInt(0);
       Status s = add.Run();  // finishes the statement (RETURNING) and resets it

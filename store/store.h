@@ -220,6 +220,37 @@ struct Correction {
   int64_t to_queue = 0;  // the queue the newest correction put it in
 };
 
+// A ledger entry with its kept text, for a rebuild that counts documents
+// again.
+struct LedgerText {
+  int64_t ledger_id = 0;
+  std::string digest;
+  std::string queue;
+  bool in_model = true;  // counted in the current model
+  std::string learned_at;
+  // The text chute tokenized when it learned the document; nullopt when
+  // the store keeps no text or the entry was purged.
+  std::optional<std::string> text;
+};
+
+struct PurgeResult {
+  // Ledger entries learned before the cutoff that still held a text or a
+  // source path, and so were purged (or, in a dry run, would be); the texts
+  // and source paths among them. In queue order of name.
+  struct Queue {
+    std::string name;
+    int64_t entries = 0;
+    int64_t texts = 0;
+    int64_t sources = 0;
+  };
+  std::vector<Queue> queues;
+  int64_t entries = 0;
+  int64_t texts = 0;
+  int64_t sources = 0;
+  // As ForgetResult::checkpointed; true in a dry run.
+  bool checkpointed = false;
+};
+
 class Store {
  public:
   // Creates a new store at path with the given settings. Fails when the file
@@ -431,6 +462,24 @@ class Store {
   // set priors would sum to more than 1.
   Status SetPrior(const std::string& queue, std::optional<double> prior,
                   const ChangeInfo& change = {});
+
+  // Calls fn for every ledger entry, in ledger id order, with its kept text
+  // unpacked, inside one read transaction (a consistent view). Stops at the
+  // first Status fn returns that is not Ok and returns it. Fails with
+  // kCorruption, naming the digest, on a kept text that does not unpack.
+  // REQUIRES: fn does not write through this Store (its snapshot is open).
+  // Cost: one text unpacked at a time; memory of the largest text.
+  Status ReadLedgerTexts(const std::function<Status(const LedgerText&)>& fn);
+
+  // Erases the kept text and the source path (both set to NULL) of every
+  // ledger entry learned before `before`; counts, digests and queues stay,
+  // so the model and its version do not change. Runs as Forget does: with
+  // PRAGMA secure_delete = ON, in one transaction, then a checkpoint that
+  // empties the write-ahead log. With dry_run, only counts what would be
+  // purged. REQUIRES: before is RFC 3339 UTC as chute writes it,
+  // YYYY-MM-DDTHH:MM:SSZ (then text order is time order); otherwise fails
+  // with kInvalidArgument.
+  Status Purge(const std::string& before, bool dry_run, PurgeResult* result);
 
  private:
   Store(std::string path, sql::DbHandle db);

@@ -361,15 +361,9 @@ Status Store::Forget(const std::vector<std::string>& digests,
     s = tx.Commit();
     if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   }
-  // Copy every page back into the file and empty the write-ahead log, which
-  // otherwise keeps the pages as they were before (SQLite, "Write-Ahead
-  // Logging" and "PRAGMA wal_checkpoint", sqlite.org/wal.html). TRUNCATE
-  // waits for readers through the busy handler; busy = 1 means it could not
-  // finish.
-  sql::Statement checkpoint(db, "PRAGMA wal_checkpoint(TRUNCATE)");
-  if (checkpoint.ok() && checkpoint.Step() == SQLITE_ROW) {
-    result->checkpointed = checkpoint.ColumnInt(0) == 0;
-  }
+  // Empty the write-ahead log, which otherwise keeps the pages as they were
+  // before.
+  result->checkpointed = sql::CheckpointTruncate(db);
   return Status::Ok();
 }
 

@@ -62,11 +62,15 @@ class SideCounts {
         totals_(db,
                 "INSERT INTO rebuild_queues(queue_id, documents, tokens) VALUES(?, ?, ?) "
                 "ON CONFLICT(queue_id) DO UPDATE SET documents = documents + excluded.documents, "
-                "tokens = tokens + excluded.tokens") {}
+                "tokens = tokens + excluded.tokens"),
+        lower_totals_(db,
+                      "UPDATE rebuild_queues SET documents = documents + ?, tokens = tokens + ? "
+                      "WHERE queue_id = ?") {}
 
   Status status() const {
     for (const sql::Statement* st :
-         {&find_term_, &add_term_, &upsert_, &lower_, &remove_, &drop_term_, &totals_}) {
+         {&find_term_, &add_term_, &upsert_, &lower_, &remove_, &drop_term_, &totals_,
+          &lower_totals_}) {
       if (!st->ok()) return Status::IoError(path_ + ": " + st->error());
     }
     return Status::Ok();
@@ -80,8 +84,10 @@ class SideCounts {
     return upsert_.Bind(1, id).Bind(2, queue).Bind(3, n).Run();
   }
 
-  // documents(q) += documents, N(q) += tokens.
+  // documents(q) += documents, N(q) += tokens. A subtraction updates the
+  // row in place: the upsert's new row would fail its CHECK first.
   Status AddTotals(int64_t queue, int64_t documents, int64_t tokens) {
+    if (documents < 0) return lower_totals_.Bind(1, documents).Bind(2, tokens).Bind(3, queue).Run();
     return totals_.Bind(1, queue).Bind(2, documents).Bind(3, tokens).Run();
   }
 
@@ -125,7 +131,8 @@ class SideCounts {
 
   sqlite3* db_;
   std::string path_;
-  sql::Statement find_term_, add_term_, upsert_, lower_, remove_, drop_term_, totals_;
+  sql::Statement find_term_, add_term_, upsert_, lower_, remove_, drop_term_, totals_,
+      lower_totals_;
 };
 
 // The queue a ledger row is counted in now, or 0 (out of the model, or

@@ -37,6 +37,7 @@ std::vector<std::pair<std::string, std::string>> EncodeSettings(const StoreSetti
       {"numbers", t.numbers == NumberMode::kFold ? "fold" : "keep"},
       {"min_length", std::to_string(t.min_length)},
       {"max_length", std::to_string(t.max_length)},
+      {"keep_text", settings.keep_text ? "on" : "off"},
   };
 }
 
@@ -78,6 +79,9 @@ bool DecodeSettings(
              s.tokenizer.min_length >= 1;
     } else if (key == "max_length") {
       good = ParseInt(value, &s.tokenizer.max_length);
+    } else if (key == "keep_text") {
+      good = value == "on" || value == "off";
+      s.keep_text = value == "on";
     } else {
       known = false;
     }

@@ -14,6 +14,10 @@ namespace chute {
 struct StoreSettings {
   TokenizerOptions tokenizer;
   ModelOptions model;
+  // Keep each learned document's text in the ledger, zstd-compressed
+  // (text_codec.h), so that a later rebuild can recount it under new
+  // tokenizer settings. Setting keep_text, "on" or "off".
+  bool keep_text = true;
 };
 
 // The settings table's (key, value) rows for settings, in a fixed order.

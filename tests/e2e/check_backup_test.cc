@@ -78,7 +78,7 @@ TEST_F(CheckBackupTest, CheckJsonlHasOneObjectPerCheckThenTheSummary) {
   RunResult r = Chute({"check", "--db", "s.db", "--format", "jsonl"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
   auto lines = Lines(r.out);
-  ASSERT_EQ(lines.size(), 13u);  // twelve checks and the summary
+  ASSERT_EQ(lines.size(), 14u);  // thirteen checks and the summary
   std::set<std::string> checks;
   for (const std::string& line : lines) {
     json j = json::parse(line);
@@ -87,7 +87,7 @@ TEST_F(CheckBackupTest, CheckJsonlHasOneObjectPerCheckThenTheSummary) {
     EXPECT_FALSE(j["detail"].get<std::string>().empty());
     checks.insert(j["check"].get<std::string>());
   }
-  EXPECT_EQ(checks.size(), 13u);
+  EXPECT_EQ(checks.size(), 14u);
   json last = json::parse(lines.back());
   EXPECT_EQ(last["check"], "summary");
   EXPECT_EQ(last["detail"],

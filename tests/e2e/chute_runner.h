@@ -33,6 +33,9 @@ class TempDir {
   std::string path_;
 };
 
+// The bytes of a file; empty when it does not exist.
+std::string ReadBytes(const std::string& path);
+
 // Lines of text, without their line ends.
 std::vector<std::string> Lines(const std::string& text);
 

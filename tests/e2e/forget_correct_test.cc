@@ -5,8 +5,6 @@
 #include <sqlite3.h>
 
 #include <filesystem>
-#include <fstream>
-#include <iterator>
 #include <map>
 #include <nlohmann/json.hpp>
 #include <string>
@@ -19,11 +17,6 @@ namespace chute::testing {
 namespace {
 
 using nlohmann::json;
-
-std::string ReadBytes(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  return std::string(std::istreambuf_iterator<char>(in), {});
-}
 
 class ForgetCorrectTest : public ::testing::Test {
  protected:
@@ -93,15 +86,35 @@ TEST_F(ForgetCorrectTest, ForgetErasesThePlantedStringFromEveryStoreFile) {
   ASSERT_EQ(sqlite3_exec(raw, "SELECT COUNT(*) FROM ledger", nullptr, nullptr,
                          nullptr),
             SQLITE_OK);
+  // The store keeps the letter's text compressed: the compressed blob is
+  // looked for as well as the plain string.
+  std::string packed;
+  {
+    sqlite3_stmt* st = nullptr;
+    ASSERT_EQ(sqlite3_prepare_v2(raw, "SELECT text FROM ledger WHERE source LIKE ?", -1, &st,
+                                 nullptr),
+              SQLITE_OK);
+    const std::string like = "%" + planted + "%";
+    sqlite3_bind_text(st, 1, like.c_str(), -1, SQLITE_TRANSIENT);
+    ASSERT_EQ(sqlite3_step(st), SQLITE_ROW);
+    packed.assign(static_cast<const char*>(sqlite3_column_blob(st, 0)),
+                  static_cast<size_t>(sqlite3_column_bytes(st, 0)));
+    sqlite3_finalize(st);
+  }
+  ASSERT_FALSE(packed.empty()) << "the store keeps text by default";
   auto found = [&] {
     std::string where;
     for (const char* suffix : {"", "-wal", "-shm"}) {
-      if (ReadBytes(db + suffix).find(planted) != std::string::npos)
+      const std::string bytes = ReadBytes(db + suffix);
+      if (bytes.find(planted) != std::string::npos)
         where += "[s.db" + std::string(suffix) + "]";
+      if (bytes.find(packed) != std::string::npos)
+        where += "[text in s.db" + std::string(suffix) + "]";
     }
     return where;
   };
-  ASSERT_NE(found(), "") << "the test must first see the string it looks for";
+  ASSERT_NE(found().find("[text in s.db"), std::string::npos)
+      << "the test must first see the text it looks for";
 
   RunResult r =
       Chute({"forget", "--db", "s.db", "l/billing/" + planted + "-letter.txt",

@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "store/store.h"
+#include "store/text_codec.h"
 #include "tests/store/test_files.h"
 
 namespace chute {
@@ -25,7 +26,8 @@ using testing_files::WriteFile;
 const std::set<std::string> kAllChecks = {
     "sqlite_integrity", "foreign_keys",       "settings",        "queue_names",
     "ledger_blobs",     "ledger_tokens",      "counts_positive", "vocabulary",
-    "queue_totals",     "counts_match_ledger", "history",       "fingerprint"};
+    "queue_totals",     "counts_match_ledger", "history",       "fingerprint",
+    "ledger_text"};
 
 std::string Digest(unsigned n) {
   char buf[65];
@@ -41,8 +43,12 @@ class CheckTest : public ::testing::Test {
     ASSERT_TRUE(Store::Create(path_, StoreSettings{}, &store).ok());
     LearnBatch batch;
     // "permit" occurs in both queues; "harbour" and "lorry" in one each.
-    batch.Add(Digest(1), "permits", "a.txt", {"permit", "harbour", "permit"});
-    batch.Add(Digest(2), "permits", "b.txt", {"permit", "berth"});
+    // Two documents with kept text, one without.
+    ASSERT_TRUE(PackText("permit harbour permit", &packed_).ok());
+    std::string packed_b;
+    ASSERT_TRUE(PackText("permit, berth", &packed_b).ok());
+    batch.Add(Digest(1), "permits", "a.txt", {"permit", "harbour", "permit"}, packed_);
+    batch.Add(Digest(2), "permits", "b.txt", {"permit", "berth"}, packed_b);
     batch.Add(Digest(3), "freight", "c.txt",
               {"lorry", "permit", "lorry", "crane"});
     LearnResult result;
@@ -89,6 +95,7 @@ class CheckTest : public ::testing::Test {
 
   TempDir dir_;
   std::string path_;
+  std::string packed_;  // the kept text of Digest(1)
 };
 
 TEST_F(CheckTest, ConsistentStorePassesEveryCheckOnce) {
@@ -105,6 +112,11 @@ TEST_F(CheckTest, ConsistentStorePassesEveryCheckOnce) {
   EXPECT_EQ(report.documents, 3);
   EXPECT_EQ(report.queues, 2);
   EXPECT_EQ(report.terms, 5);  // permit harbour berth lorry crane
+  for (const CheckLine& l : report.lines) {
+    if (l.check == "ledger_text") {
+      EXPECT_EQ(l.detail, "all 2 kept texts unpack (1 entry keeps no text)");
+    }
+  }
 }
 
 TEST_F(CheckTest, MissingFileIsAnErrorNotAReport) {
@@ -184,6 +196,26 @@ TEST_F(CheckTest, LedgerBlobThatDoesNotDecodeFailsLedgerBlobs) {
   CheckReport report = Check();
   EXPECT_EQ(Failing(report), std::set<std::string>{"ledger_blobs"})
       << Findings(report);
+  EXPECT_NE(Findings(report).find(Digest(2)), std::string::npos);
+}
+
+TEST_F(CheckTest, KeptTextThatDoesNotUnpackFailsLedgerText) {
+  // Digest(1): its checksum no longer matches; Digest(2): not zstd at all.
+  std::string hex;
+  for (size_t i = 0; i < packed_.size(); ++i) {
+    unsigned char c = static_cast<unsigned char>(packed_[i]);
+    if (i + 1 == packed_.size()) c ^= 0x01;
+    char buf[3];
+    std::snprintf(buf, sizeof buf, "%02x", c);
+    hex += buf;
+  }
+  Damage("UPDATE ledger SET text = x'" + hex + "' WHERE digest = '" + Digest(1) +
+         "';"
+         "UPDATE ledger SET text = x'00ff' WHERE digest = '" + Digest(2) + "'");
+  CheckReport report = Check();
+  EXPECT_EQ(Failing(report), std::set<std::string>{"ledger_text"})
+      << Findings(report);
+  EXPECT_NE(Findings(report).find(Digest(1)), std::string::npos);
   EXPECT_NE(Findings(report).find(Digest(2)), std::string::npos);
 }
 

@@ -135,6 +135,7 @@ void ExpectVersion1Rows(Store* store) {
   EXPECT_EQ(s.tokenizer.numbers, NumberMode::kFold);
   EXPECT_EQ(s.tokenizer.min_length, 2);
   EXPECT_EQ(s.tokenizer.max_length, 30);
+  EXPECT_TRUE(s.keep_text);  // the migration to version 2 turns it on
 
   std::vector<QueueInfo> queues;
   ASSERT_TRUE(store->ListQueues(&queues).ok());

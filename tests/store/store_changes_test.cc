@@ -16,6 +16,7 @@
 
 #include "classify/model.h"
 #include "store/store.h"
+#include "store/text_codec.h"
 #include "tests/store/test_files.h"
 
 namespace chute {
@@ -203,36 +204,46 @@ TEST_F(StoreChangesTest, ForgetMatchesAStoreThatLearnedTheRestInAnotherOrder) {
   ExpectSameModel(store.get(), reversed.get());
 }
 
-// The planted word (a term, and part of the source path) is in the store
-// file or its write-ahead log after learning, and in neither file, nor the
-// -shm file, after forgetting, while the connection is still open.
+// The planted word (a term, part of the source path and of the kept text)
+// is in the store file or its write-ahead log after learning, and in
+// neither file, nor the -shm file, after forgetting, while the connection
+// is still open. The kept text is compressed, so the test looks for its
+// compressed blob too.
 TEST_F(StoreChangesTest, ForgetLeavesNoByteOfTheDocumentInTheFilesOrTheLog) {
   const std::string planted = "zqxunique1234";
   std::vector<Doc> docs = Corpus();
   docs[9].terms.push_back(planted);
+  std::string packed;  // the kept text of docs[9]
+  ASSERT_TRUE(PackText("A letter from " + planted + " about the berth.", &packed).ok());
   std::unique_ptr<Store> store;
   ASSERT_TRUE(Store::Create(dir_.File("s.db"), StoreSettings{}, &store).ok());
+  ASSERT_TRUE(store->settings().keep_text);
   LearnBatch batch;
   for (const Doc& d : docs) {
-    batch.Add(
-        d.digest, d.queue,
-        d.digest == docs[9].digest ? "/inbox/" + planted + ".txt" : SourceOf(d),
-        d.terms);
+    const bool it = d.digest == docs[9].digest;
+    batch.Add(d.digest, d.queue, it ? "/inbox/" + planted + ".txt" : SourceOf(d),
+              d.terms, it ? packed : std::string());
   }
   LearnResult learned;
   ASSERT_TRUE(store->Learn(batch, {kChange.now, "tester"}, &learned).ok());
   const std::string db = store->path();
-  auto count = [&](const std::string& file) {
+  auto count_of = [&](const std::string& file, const std::string& needle) {
     const std::string bytes = testing_files::ReadFile(file);
     size_t n = 0;
-    for (size_t at = bytes.find(planted); at != std::string::npos;
-         at = bytes.find(planted, at + 1)) {
+    for (size_t at = bytes.find(needle); at != std::string::npos;
+         at = bytes.find(needle, at + 1)) {
       ++n;
     }
     return n;
   };
+  auto count = [&](const std::string& file) { return count_of(file, planted); };
+  auto blobs = [&] {
+    return count_of(db, packed) + count_of(db + "-wal", packed) +
+           count_of(db + "-shm", packed);
+  };
   ASSERT_TRUE(std::filesystem::exists(db + "-wal"));
   ASSERT_GE(count(db) + count(db + "-wal"), 2u);  // term and path, at least
+  ASSERT_GE(blobs(), 1u);                         // the kept text
   ForgetResult result;
   ASSERT_TRUE(store->Forget({docs[9].digest}, kChange, &result).ok());
   EXPECT_TRUE(result.checkpointed);
@@ -241,6 +252,7 @@ TEST_F(StoreChangesTest, ForgetLeavesNoByteOfTheDocumentInTheFilesOrTheLog) {
   EXPECT_EQ(count(db), 0u);
   EXPECT_EQ(count(db + "-wal"), 0u);
   EXPECT_EQ(count(db + "-shm"), 0u);
+  EXPECT_EQ(blobs(), 0u);
   // And the digest is gone too.
   EXPECT_EQ(testing_files::ReadFile(db).find(docs[9].digest),
             std::string::npos);

@@ -155,7 +155,8 @@ TEST(RecountSwapTest, CatchesUpWhatWasLearnedCorrectedAndForgottenMeanwhile) {
                   .ok());
   letters[1].queue = "marina";
   ForgetResult forgotten;
-  ASSERT_TRUE(writer->Forget({letters[4].digest}, kChange, &forgotten).ok());
+  Status forget = writer->Forget({letters[4].digest}, kChange, &forgotten);
+  ASSERT_TRUE(forget.ok()) << forget.message();
   letters.erase(letters.begin() + 4);
 
   SwapResult swap;

@@ -326,6 +326,7 @@ void ExpectSameSettings(const StoreSettings& got, const StoreSettings& want) {
   EXPECT_EQ(got.tokenizer.numbers, want.tokenizer.numbers);
   EXPECT_EQ(got.tokenizer.min_length, want.tokenizer.min_length);
   EXPECT_EQ(got.tokenizer.max_length, want.tokenizer.max_length);
+  EXPECT_EQ(got.keep_text, want.keep_text);
 }
 
 TEST_F(StoreTest, SettingsRoundTrip) {
@@ -336,6 +337,7 @@ TEST_F(StoreTest, SettingsRoundTrip) {
   settings.tokenizer.numbers = NumberMode::kFold;
   settings.tokenizer.min_length = 2;
   settings.tokenizer.max_length = 20;
+  settings.keep_text = false;
   {
     std::unique_ptr<Store> store = CreateStore(settings);
     ASSERT_NE(store, nullptr);

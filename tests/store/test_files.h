@@ -10,6 +10,7 @@
 #include <stdlib.h>
 
 #include <cstdint>
+#include <cstdio>
 #include <filesystem>
 #include <fstream>
 #include <iterator>
@@ -64,6 +65,14 @@ inline void WriteFile(const std::string& path, std::string_view bytes) {
 inline std::string ReadFile(const std::string& path) {
   std::ifstream in(path, std::ios::binary);
   return std::string(std::istreambuf_iterator<char>(in), {});
+}
+
+// A 64-hex-digit digest made from a number (the store does not check that
+// it is a real SHA-256).
+inline std::string NumberedDigest(unsigned n) {
+  char buf[65];
+  std::snprintf(buf, sizeof buf, "%064x", n);
+  return buf;
 }
 
 // An SQLite connection opened directly, outside chute's Store.
