@@ -78,15 +78,26 @@ Status RecountLedger(Store* store, const RebuildRequest& request,
   Status s = Store::Open(store->path(), &writer);
   if (!s.ok()) return s;
   std::vector<std::pair<int64_t, std::string>> texts;
+  std::vector<std::string> digests;  // of the texts, to name a document
   std::vector<RecountedDocument> docs;
   auto flush = [&]() -> Status {
     if (texts.empty()) return Status::Ok();
     Status r = RecountBatch(texts, tokenizers, &docs);
+    if (!r.ok()) {
+      for (size_t i = 0; i < docs.size(); ++i) {
+        if (docs[i].terms.empty()) {
+          return Status::InvalidArgument("document " + digests[i].substr(0, 12) +
+                                         " would have no term under the new settings; "
+                                         "nothing was changed");
+        }
+      }
+    }
     if (r.ok()) r = writer->WriteRecounted(docs);
     if (!r.ok()) return r;
     out->recounted += static_cast<int64_t>(docs.size());
     ++out->batches;
     texts.clear();
+    digests.clear();
     return Status::Ok();
   };
   s = store->ReadLedgerTexts([&](const LedgerText& entry) -> Status {
@@ -95,6 +106,7 @@ Status RecountLedger(Store* store, const RebuildRequest& request,
                                      " has no kept text");
     }
     texts.emplace_back(entry.ledger_id, *entry.text);
+    digests.push_back(entry.digest);
     return texts.size() >= request.batch ? flush() : Status::Ok();
   });
   if (s.ok()) s = flush();

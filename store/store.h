@@ -511,6 +511,8 @@ class Store {
                     ModelCounts* out);
   // The queues as a version's header lists them, by id.
   Status CurrentQueuesInTransaction(std::vector<VersionQueue>* out);
+  // Takes forgotten ledger ids out of the candidate's members and moves.
+  Status EraseFromCandidateInTransaction(const std::vector<int64_t>& ids);
   // The side tables' part of Forget: the document's recount leaves them.
   Status ForgetRecountInTransaction(int64_t ledger_id);
   Status WriteRecountedInTransaction(const std::vector<RecountedDocument>& docs);

@@ -221,6 +221,18 @@ Status Store::LoadCandidate(std::optional<Candidate>* out) {
   return Status::Ok();
 }
 
+Status Store::EraseFromCandidateInTransaction(const std::vector<int64_t>& ids) {
+  std::optional<Candidate> c;
+  Status s = LoadCandidate(&c);
+  if (!s.ok() || !c || ids.empty()) return s;
+  const std::unordered_set<int64_t> gone(ids.begin(), ids.end());
+  std::erase_if(c->members, [&](const auto& m) { return gone.count(m.first) > 0; });
+  std::erase_if(c->moves, [&](const MemberChange& m) { return gone.count(m.ledger_id) > 0; });
+  sql::Statement put(db_.get(), "UPDATE candidate SET members = ?, moves = ?");
+  if (!put.ok()) return Status::IoError(path_ + ": " + put.error());
+  return put.BindBlob(1, EncodeMembers(c->members)).Bind(2, EncodeMoves(c->moves)).Run();
+}
+
 Status Store::SetCandidateDetails(const std::string& details) {
   sql::Statement st(db_.get(), "UPDATE candidate SET details = ?");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());

@@ -355,6 +355,7 @@ Status Store::Forget(const std::vector<std::string>& digests,
       result->forgotten.push_back(std::move(doc.entry));
     }
     if (s = EraseFromSnapshotsInTransaction(erased); !s.ok()) return s;
+    if (s = EraseFromCandidateInTransaction(erased); !s.ok()) return s;
     // The version records how many documents left, never which.
     s = RecordVersionInTransaction("forget", change, delta);
     if (!s.ok()) return s;

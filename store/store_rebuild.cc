@@ -308,7 +308,11 @@ Status Store::ForgetRecountInTransaction(int64_t ledger_id) {
   int rc = st.Step();
   if (rc == SQLITE_DONE) return Status::Ok();
   if (rc != SQLITE_ROW) return sql::ErrorStatus(db, path_);
-  const int64_t queue = st.ColumnIsNull(0) ? 0 : st.ColumnInt(0);
+  // Once swapped in (the rebuild row gone), the side counts are the model's
+  // and only the row is left to delete.
+  sql::Statement active(db, "SELECT EXISTS (SELECT 1 FROM rebuild)");
+  if (!active.ok() || active.Step() != SQLITE_ROW) return sql::ErrorStatus(db, path_);
+  const int64_t queue = st.ColumnIsNull(0) || active.ColumnInt(0) == 0 ? 0 : st.ColumnInt(0);
   const int64_t tokens = st.ColumnInt(1);
   std::vector<TermCount> terms;
   if (!DecodeTermCounts(st.ColumnBlob(2), &terms)) {

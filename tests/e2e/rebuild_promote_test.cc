@@ -5,6 +5,7 @@
 // stops a worse one.
 #include <gtest/gtest.h>
 
+#include <filesystem>
 #include <nlohmann/json.hpp>
 #include <string>
 #include <vector>
@@ -154,6 +155,31 @@ TEST_F(RebuildPromoteTest, ACandidateCatchesUpWithLearningBeforeItIsPromoted) {
   r = Chute({"promote", "--db", "a.db"});
   EXPECT_EQ(r.exit_code, 1);  // the candidate is gone
   EXPECT_NE(r.err.find("no candidate"), std::string::npos) << r.err;
+}
+
+TEST_F(RebuildPromoteTest, RefusesSettingsUnderWhichADocumentHasNoTerm) {
+  WriteTree("lab", 3);
+  Fresh("a.db", "lab", {});
+  const std::vector<std::string> before = Routes("a.db");
+  RunResult r = Chute({"rebuild", "--db", "a.db", "--min-length", "40", "--max-length", "64"});
+  EXPECT_EQ(r.exit_code, 1);
+  EXPECT_NE(r.err.find("would have no term under the new settings"), std::string::npos) << r.err;
+  EXPECT_EQ(Routes("a.db"), before);
+  Ok({"check", "--db", "a.db"});
+}
+
+TEST_F(RebuildPromoteTest, ADocumentForgottenMeanwhileLeavesTheRecountedCandidate) {
+  WriteTree("lab", 6);
+  Fresh("a.db", "lab", {});
+  Ok({"rebuild", "--db", "a.db", "--bigrams", "on", "--numbers", "fold", "--candidate"});
+  Ok({"forget", "--db", "a.db", "lab/billing/i2.txt"});
+  RunResult r = Chute({"promote", "--db", "a.db", "--force"});
+  ASSERT_EQ(r.exit_code, 0) << r.err << r.out;
+  std::filesystem::remove(dir_.path() + "/lab/billing/i2.txt");
+  Fresh("b.db", "lab", {"--bigrams", "on", "--numbers", "fold"});
+  EXPECT_EQ(Routes("a.db"), Routes("b.db"));
+  EXPECT_EQ(Queues("a.db"), Queues("b.db"));
+  Ok({"check", "--db", "a.db"});
 }
 
 // Berth letters learned under billing by mistake; a reviewer's corrections
