@@ -6,9 +6,11 @@
 
 namespace chute {
 
-bool EvaluateHeldOut(ModelCounts counts, const std::vector<HeldOutDocument>& held,
-                     const std::vector<std::string>& labels, const ModelOptions& options,
-                     std::vector<Prediction>* out, std::string* error) {
+bool EvaluateHeldOut(ModelCounts counts,
+                     const std::vector<HeldOutDocument>& held,
+                     const std::vector<std::string>& labels,
+                     const ModelOptions& options, std::vector<Prediction>* out,
+                     std::string* error) {
   out->clear();
   const size_t nq = counts.queues.size();
   {
@@ -19,8 +21,11 @@ bool EvaluateHeldOut(ModelCounts counts, const std::vector<HeldOutDocument>& hel
       int64_t tokens = 0;
       for (const auto& [term, n] : d.terms) {
         const int64_t row = index.Find(term);
-        if (q >= nq || row < 0 || counts.counts[static_cast<size_t>(row) * nq + q] < n) {
-          *error = "a held-out document's counts exceed the counts it is said to be in";
+        if (q >= nq || row < 0 ||
+            counts.counts[static_cast<size_t>(row) * nq + q] < n) {
+          *error =
+              "a held-out document's counts exceed the counts it is said to be "
+              "in";
           return false;
         }
         counts.counts[static_cast<size_t>(row) * nq + q] -= n;
@@ -33,7 +38,9 @@ bool EvaluateHeldOut(ModelCounts counts, const std::vector<HeldOutDocument>& hel
   // Terms whose counts all went to zero leave |V| (Model::Build).
   const Model model = Model::Build(counts, options);
   if (model.queue_count() == 0) {
-    *error = "no queue is left to route to once the held-out documents are taken out";
+    *error =
+        "no queue is left to route to once the held-out documents are taken "
+        "out";
     return false;
   }
   const std::vector<uint32_t> label_of_queue = LabelsOfQueues(model, labels);
@@ -50,8 +57,8 @@ bool EvaluateHeldOut(ModelCounts counts, const std::vector<HeldOutDocument>& hel
       }
     }
     std::sort(rows.begin(), rows.end());
-    out->push_back(
-        PredictionFromDecision(model.Decide(rows, unknown), label_of_queue, labels.size(), d.truth));
+    out->push_back(PredictionFromDecision(
+        model.Decide(rows, unknown), label_of_queue, labels.size(), d.truth));
   }
   return true;
 }

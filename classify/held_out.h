@@ -24,7 +24,8 @@ struct HeldOutDocument {
   // model never learned it): subtracted from there before building.
   std::optional<uint32_t> counted;
   uint32_t truth = 0;  // its label: the queue it belongs in
-  std::vector<std::pair<std::string, int64_t>> terms;  // its own counts, distinct terms
+  std::vector<std::pair<std::string, int64_t>>
+      terms;  // its own counts, distinct terms
 };
 
 // Subtracts every held-out document from `counts` (a copy), builds the
@@ -33,9 +34,11 @@ struct HeldOutDocument {
 // documents). Returns false, with a one-line reason, when a document's
 // counts exceed the counts it is said to be counted in, or when no queue
 // is left to route to.
-bool EvaluateHeldOut(ModelCounts counts, const std::vector<HeldOutDocument>& held,
-                     const std::vector<std::string>& labels, const ModelOptions& options,
-                     std::vector<Prediction>* out, std::string* error);
+bool EvaluateHeldOut(ModelCounts counts,
+                     const std::vector<HeldOutDocument>& held,
+                     const std::vector<std::string>& labels,
+                     const ModelOptions& options, std::vector<Prediction>* out,
+                     std::string* error);
 
 }  // namespace chute
 

@@ -1,7 +1,6 @@
 // chute promote: the candidate replaces the current model when the
 // promotion gate finds it not worse on held-out documents (cli/promotion.h).
 #include <CLI/CLI.hpp>
-
 #include <charconv>
 
 #include "cli/command.h"
@@ -33,19 +32,22 @@ std::string Figure(const std::optional<double>& v) {
 }
 
 void PrintCandidate(const Candidate& c) {
-  Print("candidate from " + c.kind + ", made " + c.made + " by " + c.by + " from version " +
-        std::to_string(c.base_version) + "; settings " + SettingsJson(c.settings) + "; " +
-        std::to_string(c.moves.size()) + " corrections of its own\n");
-  if (!c.details.empty()) Print("the gate refused it last time: " + c.details + "\n");
+  Print("candidate from " + c.kind + ", made " + c.made + " by " + c.by +
+        " from version " + std::to_string(c.base_version) + "; settings " +
+        SettingsJson(c.settings) + "; " + std::to_string(c.moves.size()) +
+        " corrections of its own\n");
+  if (!c.details.empty())
+    Print("the gate refused it last time: " + c.details + "\n");
 }
 
 void PrintTable(const GateReport& r, double margin) {
   PrintCandidate(r.candidate);
-  Print("held out: " + std::to_string(r.held_out) + " of " + std::to_string(r.pool) + " " +
-        r.held_out_from +
-        (r.held_out_from == "corrections" ? ""
-                                           : " (too few corrections to hold out; fewer than " +
-                                                 std::to_string(kMinCorrections) + ")") +
+  Print("held out: " + std::to_string(r.held_out) + " of " +
+        std::to_string(r.pool) + " " + r.held_out_from +
+        (r.held_out_from == "corrections"
+             ? ""
+             : " (too few corrections to hold out; fewer than " +
+                   std::to_string(kMinCorrections) + ")") +
         ", taken out of both models\n");
   TableWriter table({{"queue"},
                      {"held out", TableWriter::Align::kRight},
@@ -55,12 +57,16 @@ void PrintTable(const GateReport& r, double margin) {
   for (const GateQueue& q : r.queues) {
     table.AddRow({q.queue, std::to_string(q.held_out), Figure(q.recall_current),
                   Figure(q.recall_candidate),
-                  q.blocks ? "blocks: recall lower by more than " + FormatShortest(margin) : ""});
+                  q.blocks ? "blocks: recall lower by more than " +
+                                 FormatShortest(margin)
+                           : ""});
   }
   Print(table.Render());
   Print("macro-F1 now " + Figure(r.macro_f1_current) + ", candidate " +
         Figure(r.macro_f1_candidate) +
-        (r.macro_f1_blocks ? " (blocks: lower by more than " + FormatShortest(margin) + ")" : "") +
+        (r.macro_f1_blocks
+             ? " (blocks: lower by more than " + FormatShortest(margin) + ")"
+             : "") +
         "\n");
   if (r.passed) {
     Print("promoted: version " + std::to_string(r.made.version) + "\n");
@@ -68,8 +74,10 @@ void PrintTable(const GateReport& r, double margin) {
     Print("promoted by --force although the gate refused it: version " +
           std::to_string(r.made.version) + "\n");
   } else {
-    Print("not promoted: the candidate is worse than the current model by more than " +
-          FormatShortest(margin) + "; it stays, with these figures\n");
+    Print(
+        "not promoted: the candidate is worse than the current model by more "
+        "than " +
+        FormatShortest(margin) + "; it stays, with these figures\n");
   }
 }
 
@@ -81,10 +89,14 @@ int RunPromote(const PromoteOptions& o) {
   gate.change = ChangeInfo{NowRfc3339(), o.by};
   if (!o.hold_out.empty()) {
     double v = 0;
-    auto r = std::from_chars(o.hold_out.data(), o.hold_out.data() + o.hold_out.size(), v);
-    if (r.ec != std::errc() || r.ptr != o.hold_out.data() + o.hold_out.size() || !(v > 0) ||
+    auto r = std::from_chars(o.hold_out.data(),
+                             o.hold_out.data() + o.hold_out.size(), v);
+    if (r.ec != std::errc() || r.ptr != o.hold_out.data() + o.hold_out.size() ||
+        !(v > 0) ||
         (v > 1 && v != static_cast<double>(static_cast<int64_t>(v)))) {
-      Report("promote", "--hold-out takes a number of documents (1, 2, ...) or a share (0 < share <= 1)");
+      Report("promote",
+             "--hold-out takes a number of documents (1, 2, ...) or a share (0 "
+             "< share <= 1)");
       return kExitUsage;
     }
     if (v < 1 || o.hold_out.find('.') != std::string::npos) {
@@ -118,7 +130,9 @@ int RunPromote(const PromoteOptions& o) {
     std::string line = GateJson(report, o.margin);
     line.pop_back();  // the closing brace: the version follows
     Print(line + ",\"version\":" +
-          (report.promoted ? std::to_string(report.made.version) : std::string("null")) + "}\n");
+          (report.promoted ? std::to_string(report.made.version)
+                           : std::string("null")) +
+          "}\n");
   } else {
     PrintTable(report, o.margin);
   }
@@ -133,20 +147,25 @@ CommandRun SetupPromote(CLI::App* cmd) {
   AddByOption(cmd, &o->by);
   AddThreadsOption(cmd, &o->threads);
   cmd->add_option("--if-not-worse-by", o->margin,
-                  "the margin: promote when macro-F1 and every queue's recall are not lower "
+                  "the margin: promote when macro-F1 and every queue's recall "
+                  "are not lower "
                   "than the current model's by more than this (default 0.01)")
       ->check(CLI::Range(0.0, 1.0))
       ->type_name("MARGIN");
-  cmd->add_flag("--force", o->force, "promote even when the gate refuses (the figures are kept)");
+  cmd->add_flag("--force", o->force,
+                "promote even when the gate refuses (the figures are kept)");
   cmd->add_option("--hold-out", o->hold_out,
-                  "how many of the newest corrections to hold out: a number, or a share such as "
+                  "how many of the newest corrections to hold out: a number, "
+                  "or a share such as "
                   "0.2 (default: 20%, at least 10)")
       ->type_name("N|SHARE");
   cmd->add_flag("--show", o->show, "print the candidate and change nothing");
-  AddChoiceOption<OutputFormat>(cmd, "--format", &o->format,
-                                {{"table", OutputFormat::kTable}, {"jsonl", OutputFormat::kJsonl}},
-                                "table (default) or jsonl: one object with the figures");
-  cmd->footer(R"(The candidate (from 'rebuild --candidate' or 'correct --candidate') and the
+  AddChoiceOption<OutputFormat>(
+      cmd, "--format", &o->format,
+      {{"table", OutputFormat::kTable}, {"jsonl", OutputFormat::kJsonl}},
+      "table (default) or jsonl: one object with the figures");
+  cmd->footer(
+      R"(The candidate (from 'rebuild --candidate' or 'correct --candidate') and the
 current model are both evaluated on the same held-out documents: the newest
 corrections, each taken out of both models exactly, each labelled with the
 queue its newest correction put it in. The candidate is promoted when its

@@ -2,7 +2,6 @@
 // kept text, beside the current counts, and swaps the recount in (or keeps
 // it as a candidate for `chute promote`). The work is in cli/recount.h.
 #include <CLI/CLI.hpp>
-
 #include <optional>
 
 #include "cli/command.h"
@@ -32,10 +31,10 @@ struct RebuildOptions {
 
 std::string Describe(const StoreSettings& st) {
   return "alpha " + FormatShortest(st.model.alpha) + ", prior " +
-         (st.model.prior == PriorMode::kUniform ? "uniform" : "learned") + ", bigrams " +
-         (st.tokenizer.bigrams ? "on" : "off") + ", numbers " +
-         (st.tokenizer.numbers == NumberMode::kFold ? "fold" : "keep") + ", terms of " +
-         std::to_string(st.tokenizer.min_length) + " to " +
+         (st.model.prior == PriorMode::kUniform ? "uniform" : "learned") +
+         ", bigrams " + (st.tokenizer.bigrams ? "on" : "off") + ", numbers " +
+         (st.tokenizer.numbers == NumberMode::kFold ? "fold" : "keep") +
+         ", terms of " + std::to_string(st.tokenizer.min_length) + " to " +
          std::to_string(st.tokenizer.max_length) + " characters, keep-text " +
          (st.keep_text ? "on" : "off");
 }
@@ -68,8 +67,9 @@ int RunRebuild(const RebuildOptions& o) {
   }
   if (out.replaced_candidate) Print("the earlier candidate was replaced\n");
   if (out.tokenizing_changed) {
-    Print("recounted " + std::to_string(out.recounted) + " documents from their kept text in " +
-          std::to_string(out.batches) + " batches\n");
+    Print("recounted " + std::to_string(out.recounted) +
+          " documents from their kept text in " + std::to_string(out.batches) +
+          " batches\n");
   }
   if (o.candidate) {
     Print("candidate made (" + Describe(t) +
@@ -77,10 +77,12 @@ int RunRebuild(const RebuildOptions& o) {
   } else {
     if (out.tokenizing_changed) {
       Print("swapped in " + FormatShortest(out.swap_seconds) + " s; " +
-            std::to_string(out.swap.caught_up) + " documents learned meanwhile recounted, " +
+            std::to_string(out.swap.caught_up) +
+            " documents learned meanwhile recounted, " +
             std::to_string(out.swap.resynced) + " moved meanwhile followed\n");
     }
-    Print("version " + std::to_string(out.made.version) + " (rebuild): " + Describe(t) + "\n");
+    Print("version " + std::to_string(out.made.version) +
+          " (rebuild): " + Describe(t) + "\n");
   }
   return kExitDone;
 }
@@ -93,7 +95,8 @@ CommandRun SetupRebuild(CLI::App* cmd) {
   AddByOption(cmd, &o->by);
   AddThreadsOption(cmd, &o->threads);
   cmd->add_flag("--candidate", o->candidate,
-                "stop before the swap: keep the result as the candidate for 'chute promote'");
+                "stop before the swap: keep the result as the candidate for "
+                "'chute promote'");
   cmd->add_option_function<double>(
          "--alpha", [o](const double& v) { o->alpha = v; },
          "smoothing added to every count: 1 is Laplace, 0 < alpha < 1 Lidstone")
@@ -103,11 +106,12 @@ CommandRun SetupRebuild(CLI::App* cmd) {
       cmd, "--prior", &o->prior,
       {{"learned", PriorMode::kLearned}, {"uniform", PriorMode::kUniform}},
       "prior of queues without a hand-set prior");
-  AddChoiceOption<std::optional<bool>>(cmd, "--bigrams", &o->bigrams,
-                                       {{"on", true}, {"off", false}},
-                                       "also count pairs of adjacent terms (needs kept text)");
+  AddChoiceOption<std::optional<bool>>(
+      cmd, "--bigrams", &o->bigrams, {{"on", true}, {"off", false}},
+      "also count pairs of adjacent terms (needs kept text)");
   AddChoiceOption<std::optional<NumberMode>>(
-      cmd, "--numbers", &o->numbers, {{"keep", NumberMode::kKeep}, {"fold", NumberMode::kFold}},
+      cmd, "--numbers", &o->numbers,
+      {{"keep", NumberMode::kKeep}, {"fold", NumberMode::kFold}},
       "keep numbers, or fold them into one term <num> (needs kept text)");
   cmd->add_option_function<int32_t>(
          "--min-length", [o](const int32_t& v) { o->min_length = v; },
@@ -119,8 +123,10 @@ CommandRun SetupRebuild(CLI::App* cmd) {
       ->check(CLI::Range(1, 1000));
   AddChoiceOption<std::optional<bool>>(
       cmd, "--keep-text", &o->keep_text, {{"on", true}, {"off", false}},
-      "keep the text of documents learned from now on (texts kept so far stay until purge)");
-  cmd->footer(R"(Settings not given stay as they are. Changing --alpha or --prior needs no
+      "keep the text of documents learned from now on (texts kept so far stay "
+      "until purge)");
+  cmd->footer(
+      R"(Settings not given stay as they are. Changing --alpha or --prior needs no
 text; changing how documents are tokenized (--bigrams, --numbers,
 --min-length, --max-length) recounts every learned document from the text
 the store kept, in short transactions beside the current model, and swaps

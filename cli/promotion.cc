@@ -26,15 +26,18 @@ struct HeldOut {
 };
 
 // Chooses the held-out documents (promotion.h explains the rule).
-void ChooseHeldOut(const Candidate& candidate, const std::vector<Correction>& log,
+void ChooseHeldOut(const Candidate& candidate,
+                   const std::vector<Correction>& log,
                    const std::vector<std::pair<int64_t, int64_t>>& current,
-                   const GateOptions& o, std::vector<HeldOut>* out, GateReport* report) {
+                   const GateOptions& o, std::vector<HeldOut>* out,
+                   GateReport* report) {
   std::vector<HeldOut> pool;
   const bool own = !candidate.moves.empty();
   if (own) {
     std::set<int64_t> seen;
     for (auto m = candidate.moves.rbegin(); m != candidate.moves.rend(); ++m) {
-      if (seen.insert(m->ledger_id).second) pool.push_back({m->ledger_id, m->to_queue});
+      if (seen.insert(m->ledger_id).second)
+        pool.push_back({m->ledger_id, m->to_queue});
     }
   } else {
     for (const Correction& c : log) pool.push_back({c.ledger_id, c.to_queue});
@@ -46,7 +49,8 @@ void ChooseHeldOut(const Candidate& candidate, const std::vector<Correction>& lo
     // learned queue by queue does not lose a whole queue.
     pool.clear();
     std::map<int64_t, std::vector<int64_t>> of_queue;
-    for (auto m = current.rbegin(); m != current.rend(); ++m) of_queue[m->second].push_back(m->first);
+    for (auto m = current.rbegin(); m != current.rend(); ++m)
+      of_queue[m->second].push_back(m->first);
     for (size_t k = 0; pool.size() < current.size(); ++k) {
       for (const auto& [queue, ids] : of_queue) {
         if (k < ids.size()) pool.push_back({ids[k], queue});
@@ -60,10 +64,12 @@ void ChooseHeldOut(const Candidate& candidate, const std::vector<Correction>& lo
   if (o.hold_out) {
     n = *o.hold_out;
   } else if (o.hold_out_share) {
-    n = static_cast<int64_t>(std::ceil(*o.hold_out_share * static_cast<double>(size)));
+    n = static_cast<int64_t>(
+        std::ceil(*o.hold_out_share * static_cast<double>(size)));
   } else {
     n = std::max(std::min(kHoldOutFloor, size),
-                 static_cast<int64_t>(std::ceil(kDefaultHoldOutShare * static_cast<double>(size))));
+                 static_cast<int64_t>(std::ceil(kDefaultHoldOutShare *
+                                                static_cast<double>(size))));
   }
   if (capped) n = std::min(n, size / 2);
   n = std::clamp<int64_t>(n, 0, size);
@@ -72,8 +78,10 @@ void ChooseHeldOut(const Candidate& candidate, const std::vector<Correction>& lo
 }
 
 // One model's predictions on the held-out documents.
-Status Predict(Store* store, const std::vector<std::pair<int64_t, int64_t>>& members,
-               bool recounted, const ModelOptions& options, const std::vector<HeldOut>& held,
+Status Predict(Store* store,
+               const std::vector<std::pair<int64_t, int64_t>>& members,
+               bool recounted, const ModelOptions& options,
+               const std::vector<HeldOut>& held,
                const std::vector<std::string>& labels,
                const std::unordered_map<int64_t, std::string>& name_of,
                std::vector<Prediction>* out) {
@@ -88,8 +96,10 @@ Status Predict(Store* store, const std::vector<std::pair<int64_t, int64_t>>& mem
   for (size_t q = 0; q < counts.queues.size(); ++q) {
     column[counts.queues[q].name] = static_cast<uint32_t>(q);
   }
-  for (size_t l = 0; l < labels.size(); ++l) label[labels[l]] = static_cast<uint32_t>(l);
-  const std::unordered_map<int64_t, int64_t> member(members.begin(), members.end());
+  for (size_t l = 0; l < labels.size(); ++l)
+    label[labels[l]] = static_cast<uint32_t>(l);
+  const std::unordered_map<int64_t, int64_t> member(members.begin(),
+                                                    members.end());
   std::vector<HeldOutDocument> docs(held.size());
   for (size_t i = 0; i < held.size(); ++i) {
     auto m = member.find(held[i].ledger_id);
@@ -107,20 +117,22 @@ Status Predict(Store* store, const std::vector<std::pair<int64_t, int64_t>>& mem
   return Status::Ok();
 }
 
-bool Lower(const std::optional<double>& candidate, const std::optional<double>& current,
-           double margin) {
+bool Lower(const std::optional<double>& candidate,
+           const std::optional<double>& current, double margin) {
   return candidate && current && *candidate < *current - margin - kTolerance;
 }
 
 void AddFigures(JsonWriter& w, const std::optional<double>& macro_f1,
-                const std::optional<double>& accuracy, const GateReport& r, bool candidate) {
+                const std::optional<double>& accuracy, const GateReport& r,
+                bool candidate) {
   w.BeginObject().Key("macro_f1");
   macro_f1 ? w.Number(*macro_f1) : w.Null();
   w.Key("accuracy");
   accuracy ? w.Number(*accuracy) : w.Null();
   w.Key("recall").BeginObject();
   for (const GateQueue& q : r.queues) {
-    const std::optional<double>& v = candidate ? q.recall_candidate : q.recall_current;
+    const std::optional<double>& v =
+        candidate ? q.recall_candidate : q.recall_current;
     w.Key(q.queue);
     v ? w.Number(*v) : w.Null();
   }
@@ -136,7 +148,10 @@ std::string GateJson(const GateReport& r, double margin) {
   w.Key("settings");
   WriteSettings(r.candidate.settings, &w);
   w.Key("margin").Number(margin);
-  w.Key("held_out").Int(r.held_out).Key("held_out_from").String(r.held_out_from);
+  w.Key("held_out")
+      .Int(r.held_out)
+      .Key("held_out_from")
+      .String(r.held_out_from);
   w.Key("current");
   AddFigures(w, r.macro_f1_current, r.accuracy_current, r, false);
   w.Key("candidate_figures");
@@ -147,7 +162,10 @@ std::string GateJson(const GateReport& r, double margin) {
     if (q.blocks) w.String("recall:" + q.queue);
   }
   w.EndArray();
-  w.Key("decision").String(r.passed ? "promoted" : r.promoted ? "forced" : "refused");
+  w.Key("decision")
+      .String(r.passed     ? "promoted"
+              : r.promoted ? "forced"
+                           : "refused");
   return w.EndObject().Take();
 }
 
@@ -157,12 +175,14 @@ Status RunPromotion(Store* store, const GateOptions& o, GateReport* r) {
   Status s = store->LoadCandidate(&candidate);
   if (!s.ok()) return s;
   if (!candidate) {
-    return Status::NotFound(store->path() +
-                            ": there is no candidate (make one with rebuild --candidate or "
-                            "correct --candidate)");
+    return Status::NotFound(
+        store->path() +
+        ": there is no candidate (make one with rebuild --candidate or "
+        "correct --candidate)");
   }
   r->candidate = *candidate;
-  const bool recounted = !SameTokenizing(candidate->settings, store->settings());
+  const bool recounted =
+      !SameTokenizing(candidate->settings, store->settings());
   if (recounted && (s = CatchUpRecount(store, o.threads), !s.ok())) return s;
 
   std::vector<std::pair<int64_t, int64_t>> current, proposed;
@@ -179,24 +199,29 @@ Status RunPromotion(Store* store, const GateOptions& o, GateReport* r) {
   // Labels: every queue with documents in either model, and every truth.
   std::vector<std::pair<int64_t, std::string>> names;
   if (s = store->QueueNames(&names); !s.ok()) return s;
-  const std::unordered_map<int64_t, std::string> name_of(names.begin(), names.end());
+  const std::unordered_map<int64_t, std::string> name_of(names.begin(),
+                                                         names.end());
   std::set<std::string> label_set;
   for (const auto* members : {&current, &proposed}) {
-    for (const auto& [id, queue] : *members) label_set.insert(name_of.at(queue));
+    for (const auto& [id, queue] : *members)
+      label_set.insert(name_of.at(queue));
   }
   for (const HeldOut& h : held) label_set.insert(name_of.at(h.truth_queue));
   const std::vector<std::string> labels(label_set.begin(), label_set.end());
 
   if (!held.empty()) {
     std::vector<Prediction> now, next;
-    s = Predict(store, current, false, store->settings().model, held, labels, name_of, &now);
+    s = Predict(store, current, false, store->settings().model, held, labels,
+                name_of, &now);
     if (s.ok()) {
-      s = Predict(store, proposed, recounted, candidate->settings.model, held, labels, name_of,
-                  &next);
+      s = Predict(store, proposed, recounted, candidate->settings.model, held,
+                  labels, name_of, &next);
     }
     if (!s.ok()) return s;
-    const ClassificationMetrics a = ComputeClassificationMetrics(now, labels.size());
-    const ClassificationMetrics b = ComputeClassificationMetrics(next, labels.size());
+    const ClassificationMetrics a =
+        ComputeClassificationMetrics(now, labels.size());
+    const ClassificationMetrics b =
+        ComputeClassificationMetrics(next, labels.size());
     r->macro_f1_current = a.macro.f1;
     r->macro_f1_candidate = b.macro.f1;
     r->accuracy_current = a.accuracy;
@@ -209,9 +234,9 @@ Status RunPromotion(Store* store, const GateOptions& o, GateReport* r) {
       r->queues.push_back(std::move(q));
     }
   }
-  const bool blocked =
-      r->macro_f1_blocks ||
-      std::any_of(r->queues.begin(), r->queues.end(), [](const GateQueue& q) { return q.blocks; });
+  const bool blocked = r->macro_f1_blocks ||
+                       std::any_of(r->queues.begin(), r->queues.end(),
+                                   [](const GateQueue& q) { return q.blocks; });
   r->passed = !held.empty() && !blocked;
   r->promoted = r->passed || o.force;
   const std::string details = GateJson(*r, o.margin);
@@ -219,7 +244,8 @@ Status RunPromotion(Store* store, const GateOptions& o, GateReport* r) {
     if (s = store->SetCandidateDetails(details); !s.ok()) return s;
     if (held.empty()) {
       return Status::InvalidArgument(
-          "no document can be held out (the store has no correction and no learned document); "
+          "no document can be held out (the store has no correction and no "
+          "learned document); "
           "use --force to promote without the gate");
     }
     return Status::Ok();

@@ -13,10 +13,10 @@
 // of the change log. With fewer than kMinCorrections of them, the newest
 // learned documents of the current model are held out instead, labelled
 // with their queue (newest first within each queue, the queues in turn, so
-// that a batch learned queue by queue does not lose a whole queue). How many: --hold-out N or a share; by default
-// kDefaultHoldOutShare of them, at least min(kHoldOutFloor, all); of a
-// candidate's own corrections never more than half, so that the candidate
-// keeps learning from the rest.
+// that a batch learned queue by queue does not lose a whole queue). How many:
+// --hold-out N or a share; by default kDefaultHoldOutShare of them, at least
+// min(kHoldOutFloor, all); of a candidate's own corrections never more than
+// half, so that the candidate keeps learning from the rest.
 #ifndef CHUTE_CLI_PROMOTION_H_
 #define CHUTE_CLI_PROMOTION_H_
 
@@ -35,8 +35,8 @@ inline constexpr double kDefaultHoldOutShare = 0.2;
 inline constexpr int64_t kHoldOutFloor = 10;
 
 struct GateOptions {
-  double margin = 0.01;              // REQUIRES: >= 0
-  std::optional<int64_t> hold_out;   // a number of documents (>= 1)
+  double margin = 0.01;                  // REQUIRES: >= 0
+  std::optional<int64_t> hold_out;       // a number of documents (>= 1)
   std::optional<double> hold_out_share;  // or a share, 0 < share <= 1
   bool force = false;
   size_t threads = 1;
@@ -48,7 +48,7 @@ struct GateQueue {
   int64_t held_out = 0;  // held-out documents labelled with it (support)
   std::optional<double> recall_current;
   std::optional<double> recall_candidate;
-  bool blocks = false;   // its recall fell by more than the margin
+  bool blocks = false;  // its recall fell by more than the margin
 };
 
 struct GateReport {
@@ -69,7 +69,8 @@ struct GateReport {
 // the gate passes or options.force; otherwise keeps the figures with the
 // candidate. NotFound when there is no candidate; InvalidArgument when no
 // document can be held out (and not forced).
-Status RunPromotion(Store* store, const GateOptions& options, GateReport* report);
+Status RunPromotion(Store* store, const GateOptions& options,
+                    GateReport* report);
 
 // The figures and the decision as a JSON object (a version's details).
 std::string GateJson(const GateReport& report, double margin);

@@ -21,7 +21,8 @@ Status RecountBatch(const std::vector<std::pair<int64_t, std::string>>& texts,
   std::vector<Status> status(texts.size());
   ParallelFor(texts.size(), tokenizers.size(), [&](size_t i, size_t worker) {
     (*docs)[i].ledger_id = texts[i].first;
-    status[i] = RecountText(tokenizers[worker].get(), texts[i].second, &(*docs)[i]);
+    status[i] =
+        RecountText(tokenizers[worker].get(), texts[i].second, &(*docs)[i]);
   });
   for (const Status& s : status) {
     if (!s.ok()) return s;
@@ -29,8 +30,8 @@ Status RecountBatch(const std::vector<std::pair<int64_t, std::string>>& texts,
   return Status::Ok();
 }
 
-std::vector<std::unique_ptr<Tokenizer>> MakeTokenizers(const TokenizerOptions& options,
-                                                       size_t threads) {
+std::vector<std::unique_ptr<Tokenizer>> MakeTokenizers(
+    const TokenizerOptions& options, size_t threads) {
   std::vector<std::unique_ptr<Tokenizer>> out;
   for (size_t t = 0; t < std::max<size_t>(1, threads); ++t) {
     out.push_back(std::make_unique<Tokenizer>(options));
@@ -40,7 +41,8 @@ std::vector<std::unique_ptr<Tokenizer>> MakeTokenizers(const TokenizerOptions& o
 
 // Recounts the ledger documents that have no recount yet, reading through
 // `store` and writing through `writer` (which may be the same).
-Status CatchUp(Store* store, Store* writer, std::vector<std::unique_ptr<Tokenizer>>& tokenizers,
+Status CatchUp(Store* store, Store* writer,
+               std::vector<std::unique_ptr<Tokenizer>>& tokenizers,
                size_t batch, RebuildOutcome* out) {
   std::vector<int64_t> missing;
   Status s = store->UnrecountedDocuments(&missing);
@@ -49,16 +51,18 @@ Status CatchUp(Store* store, Store* writer, std::vector<std::unique_ptr<Tokenize
   for (size_t start = 0; s.ok() && start < missing.size(); start += batch) {
     const std::vector<int64_t> ids(
         missing.begin() + static_cast<ptrdiff_t>(start),
-        missing.begin() + static_cast<ptrdiff_t>(std::min(missing.size(), start + batch)));
+        missing.begin() +
+            static_cast<ptrdiff_t>(std::min(missing.size(), start + batch)));
     texts.clear();
-    s = store->ReadTextsOf(ids, [&](int64_t id, const std::optional<std::string>& text) {
-      if (!text) {
-        return Status::InvalidArgument(
-            "a document learned since the recount began has no kept text");
-      }
-      texts.emplace_back(id, *text);
-      return Status::Ok();
-    });
+    s = store->ReadTextsOf(
+        ids, [&](int64_t id, const std::optional<std::string>& text) {
+          if (!text) {
+            return Status::InvalidArgument(
+                "a document learned since the recount began has no kept text");
+          }
+          texts.emplace_back(id, *text);
+          return Status::Ok();
+        });
     if (s.ok()) s = RecountBatch(texts, tokenizers, &docs);
     if (s.ok()) s = writer->WriteRecounted(docs);
     if (s.ok()) {
@@ -73,7 +77,8 @@ Status CatchUp(Store* store, Store* writer, std::vector<std::unique_ptr<Tokenize
 // connection while the first reads one snapshot of the ledger; then the
 // documents learned meanwhile.
 Status RecountLedger(Store* store, const RebuildRequest& request,
-                     std::vector<std::unique_ptr<Tokenizer>>& tokenizers, RebuildOutcome* out) {
+                     std::vector<std::unique_ptr<Tokenizer>>& tokenizers,
+                     RebuildOutcome* out) {
   std::unique_ptr<Store> writer;
   Status s = Store::Open(store->path(), &writer);
   if (!s.ok()) return s;
@@ -86,9 +91,10 @@ Status RecountLedger(Store* store, const RebuildRequest& request,
     if (!r.ok()) {
       for (size_t i = 0; i < docs.size(); ++i) {
         if (docs[i].terms.empty()) {
-          return Status::InvalidArgument("document " + digests[i].substr(0, 12) +
-                                         " would have no term under the new settings; "
-                                         "nothing was changed");
+          return Status::InvalidArgument(
+              "document " + digests[i].substr(0, 12) +
+              " would have no term under the new settings; "
+              "nothing was changed");
         }
       }
     }
@@ -126,8 +132,9 @@ Status CatchUpRecount(Store* store, size_t threads) {
   return CatchUp(store, store, tokenizers, kRecountBatch, &ignored);
 }
 
-Status RollbackAcrossTokenizing(Store* store, int64_t v, const ChangeInfo& change,
-                                size_t threads, RollbackResult* result) {
+Status RollbackAcrossTokenizing(Store* store, int64_t v,
+                                const ChangeInfo& change, size_t threads,
+                                RollbackResult* result) {
   VersionState state;
   Status s = store->LoadVersionState(v, &state);
   if (!s.ok()) return s;
@@ -135,8 +142,9 @@ Status RollbackAcrossTokenizing(Store* store, int64_t v, const ChangeInfo& chang
   if (s = store->CountKeptTexts(&documents, &without_text); !s.ok()) return s;
   if (without_text > 0) {
     return Status::InvalidArgument(
-        "version " + std::to_string(v) + " tokenized with other settings, and " +
-        std::to_string(without_text) + " of " + std::to_string(documents) +
+        "version " + std::to_string(v) +
+        " tokenized with other settings, and " + std::to_string(without_text) +
+        " of " + std::to_string(documents) +
         " learned documents have no kept text to recount; nothing was changed");
   }
   RebuildRequest request;
@@ -146,7 +154,9 @@ Status RollbackAcrossTokenizing(Store* store, int64_t v, const ChangeInfo& chang
   request.change = change;
   int64_t base = 0;
   bool replaced = false;
-  if (s = store->BeginRecount(request.target, change, &base, &replaced); !s.ok()) return s;
+  if (s = store->BeginRecount(request.target, change, &base, &replaced);
+      !s.ok())
+    return s;
   auto tokenizers = MakeTokenizers(request.target.tokenizer, threads);
   RebuildOutcome ignored;
   s = RecountLedger(store, request, tokenizers, &ignored);
@@ -163,8 +173,9 @@ Status RollbackAcrossTokenizing(Store* store, int64_t v, const ChangeInfo& chang
   return s;
 }
 
-Status RecountedModelAtVersion(Store* store, int64_t v, size_t threads, VersionInfo* info,
-                               StoreSettings* settings, ModelCounts* out) {
+Status RecountedModelAtVersion(Store* store, int64_t v, size_t threads,
+                               VersionInfo* info, StoreSettings* settings,
+                               ModelCounts* out) {
   *out = ModelCounts();
   VersionState state;
   Status s = store->LoadVersionState(v, &state);
@@ -174,7 +185,9 @@ Status RecountedModelAtVersion(Store* store, int64_t v, size_t threads, VersionI
     if (!q.retired) live.push_back(&q);
   }
   std::sort(live.begin(), live.end(),
-            [](const VersionQueue* a, const VersionQueue* b) { return a->name < b->name; });
+            [](const VersionQueue* a, const VersionQueue* b) {
+              return a->name < b->name;
+            });
   std::unordered_map<int64_t, size_t> column;
   for (const VersionQueue* q : live) {
     column[q->id] = out->queues.size();
@@ -186,8 +199,9 @@ Status RecountedModelAtVersion(Store* store, int64_t v, size_t threads, VersionI
   for (const auto& [id, queue] : state.members) {
     auto c = column.find(queue);
     if (c == column.end()) {
-      return Status::Corruption(store->path() + ": version " + std::to_string(v) +
-                                " counts a document in a queue its header does not list");
+      return Status::Corruption(
+          store->path() + ": version " + std::to_string(v) +
+          " counts a document in a queue its header does not list");
     }
     column_of_member[id] = c->second;
     ids.push_back(id);
@@ -202,17 +216,19 @@ Status RecountedModelAtVersion(Store* store, int64_t v, size_t threads, VersionI
   for (size_t start = 0; s.ok() && start < ids.size(); start += kRecountBatch) {
     const std::vector<int64_t> window(
         ids.begin() + static_cast<ptrdiff_t>(start),
-        ids.begin() + static_cast<ptrdiff_t>(std::min(ids.size(), start + kRecountBatch)));
+        ids.begin() + static_cast<ptrdiff_t>(
+                          std::min(ids.size(), start + kRecountBatch)));
     texts.clear();
-    s = store->ReadTextsOf(window, [&](int64_t id, const std::optional<std::string>& text) {
-      ++read;
-      if (text) {
-        texts.emplace_back(id, *text);
-      } else {
-        ++without_text;
-      }
-      return Status::Ok();
-    });
+    s = store->ReadTextsOf(
+        window, [&](int64_t id, const std::optional<std::string>& text) {
+          ++read;
+          if (text) {
+            texts.emplace_back(id, *text);
+          } else {
+            ++without_text;
+          }
+          return Status::Ok();
+        });
     if (!s.ok() || without_text > 0) break;
     if (s = RecountBatch(texts, tokenizers, &docs); !s.ok()) break;
     for (RecountedDocument& d : docs) {
@@ -231,17 +247,19 @@ Status RecountedModelAtVersion(Store* store, int64_t v, size_t threads, VersionI
   }
   if (!s.ok()) return s;
   if (without_text > 0 || read != static_cast<int64_t>(ids.size())) {
-    return Status::InvalidArgument(
-        "version " + std::to_string(v) +
-        " tokenized with other settings, and some of its documents have no kept text to "
-        "recount (purged, or not kept)");
+    return Status::InvalidArgument("version " + std::to_string(v) +
+                                   " tokenized with other settings, and some "
+                                   "of its documents have no kept text to "
+                                   "recount (purged, or not kept)");
   }
   std::vector<size_t> order(terms.size());
   for (size_t i = 0; i < order.size(); ++i) order[i] = i;
-  std::sort(order.begin(), order.end(), [&](size_t a, size_t b) { return terms[a] < terms[b]; });
+  std::sort(order.begin(), order.end(),
+            [&](size_t a, size_t b) { return terms[a] < terms[b]; });
   for (size_t r : order) {
     out->terms.push_back(std::move(terms[r]));
-    out->counts.insert(out->counts.end(), sums.begin() + static_cast<ptrdiff_t>(r * nq),
+    out->counts.insert(out->counts.end(),
+                       sums.begin() + static_cast<ptrdiff_t>(r * nq),
                        sums.begin() + static_cast<ptrdiff_t>((r + 1) * nq));
   }
   *info = state.info;
@@ -249,13 +267,15 @@ Status RecountedModelAtVersion(Store* store, int64_t v, size_t threads, VersionI
   return Status::Ok();
 }
 
-Status RecountText(Tokenizer* tokenizer, const std::string& text, RecountedDocument* doc) {
+Status RecountText(Tokenizer* tokenizer, const std::string& text,
+                   RecountedDocument* doc) {
   std::vector<std::string> terms;
   tokenizer->Tokenize(text, &terms);
   doc->terms.clear();
   doc->tokens = static_cast<int64_t>(terms.size());
   if (terms.empty()) {
-    return Status::InvalidArgument("ledger entry " + std::to_string(doc->ledger_id) +
+    return Status::InvalidArgument("ledger entry " +
+                                   std::to_string(doc->ledger_id) +
                                    " has no term under the new settings");
   }
   std::sort(terms.begin(), terms.end());
@@ -288,10 +308,12 @@ std::string SettingsJson(const StoreSettings& settings) {
   return w.Take();
 }
 
-Status Rebuild(Store* store, const RebuildRequest& request, RebuildOutcome* out) {
+Status Rebuild(Store* store, const RebuildRequest& request,
+               RebuildOutcome* out) {
   *out = RebuildOutcome();
   out->tokenizing_changed = !SameTokenizing(request.target, store->settings());
-  const std::string details = "{\"settings\":" + SettingsJson(request.target) + "}";
+  const std::string details =
+      "{\"settings\":" + SettingsJson(request.target) + "}";
   if (!out->tokenizing_changed) {
     if (request.candidate) {
       return store->SaveRebuildCandidate(request.target, request.change,
@@ -301,23 +323,27 @@ Status Rebuild(Store* store, const RebuildRequest& request, RebuildOutcome* out)
     std::optional<Candidate> old;
     if (Status s = store->LoadCandidate(&old); !s.ok()) return s;
     out->replaced_candidate = old.has_value();
-    Status s = store->ChangeModelSettings(request.target, "rebuild", request.change, details,
-                                          &out->made);
+    Status s = store->ChangeModelSettings(request.target, "rebuild",
+                                          request.change, details, &out->made);
     if (s.ok() && old) s = store->DiscardRecount();
     return s;
   }
   int64_t documents = 0, without_text = 0;
-  if (Status s = store->CountKeptTexts(&documents, &without_text); !s.ok()) return s;
+  if (Status s = store->CountKeptTexts(&documents, &without_text); !s.ok())
+    return s;
   if (without_text > 0) {
     return Status::InvalidArgument(
         std::to_string(without_text) + " of " + std::to_string(documents) +
         " learned documents have no kept text (" +
-        (store->settings().keep_text ? "purged, or learned while the store kept none"
-                                     : "the store keeps none: init --keep-text off") +
-        "); without it only --alpha and --prior can change; nothing was changed");
+        (store->settings().keep_text
+             ? "purged, or learned while the store kept none"
+             : "the store keeps none: init --keep-text off") +
+        "); without it only --alpha and --prior can change; nothing was "
+        "changed");
   }
   int64_t base = 0;
-  Status s = store->BeginRecount(request.target, request.change, &base, &out->replaced_candidate);
+  Status s = store->BeginRecount(request.target, request.change, &base,
+                                 &out->replaced_candidate);
   if (!s.ok()) return s;
   auto tokenizers = MakeTokenizers(request.target.tokenizer, request.threads);
   s = RecountLedger(store, request, tokenizers, out);
@@ -334,10 +360,12 @@ Status Rebuild(Store* store, const RebuildRequest& request, RebuildOutcome* out)
         },
         &out->swap);
     out->swap_seconds =
-        std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+        std::chrono::duration<double>(std::chrono::steady_clock::now() - start)
+            .count();
     out->made = out->swap.made;
   }
-  if (!s.ok()) store->DiscardRecount();  // the side tables of a rebuild that failed
+  if (!s.ok())
+    store->DiscardRecount();  // the side tables of a rebuild that failed
   return s;
 }
 

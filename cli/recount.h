@@ -33,9 +33,9 @@ struct RebuildOutcome {
   int64_t recounted = 0;  // documents recounted before the swap
   int64_t batches = 0;    // transactions that wrote them
   bool replaced_candidate = false;
-  SwapResult swap;         // with a swap
+  SwapResult swap;          // with a swap
   double swap_seconds = 0;  // how long the swap's transaction took
-  VersionInfo made;        // the version recorded (not for a candidate)
+  VersionInfo made;         // the version recorded (not for a candidate)
 };
 
 // Runs a rebuild: with the store's tokenizing settings, only the settings
@@ -46,7 +46,8 @@ struct RebuildOutcome {
 // Fails with InvalidArgument, changing nothing, when tokenizing changes and
 // some documents have no kept text, and when a document would have no term
 // under the new settings.
-Status Rebuild(Store* store, const RebuildRequest& request, RebuildOutcome* out);
+Status Rebuild(Store* store, const RebuildRequest& request,
+               RebuildOutcome* out);
 
 // Recounts, with the recount's settings, the ledger documents learned since
 // the recount was written (a candidate's recount falls behind the store).
@@ -58,19 +59,22 @@ Status CatchUpRecount(Store* store, size_t threads);
 // recount is swapped in and the model made v's in one transaction, as one
 // version "rollback". Replaces any candidate. Fails with InvalidArgument,
 // changing nothing, when some documents have no kept text.
-Status RollbackAcrossTokenizing(Store* store, int64_t v, const ChangeInfo& change,
-                                size_t threads, RollbackResult* result);
+Status RollbackAcrossTokenizing(Store* store, int64_t v,
+                                const ChangeInfo& change, size_t threads,
+                                RollbackResult* result);
 
 // The counts of version v's model when its tokenizing settings are not the
 // store's: its members recounted in memory from their kept texts with v's
 // settings (read-only; for route --at-version). InvalidArgument naming how
 // many members have no kept text.
-Status RecountedModelAtVersion(Store* store, int64_t v, size_t threads, VersionInfo* info,
-                               StoreSettings* settings, ModelCounts* out);
+Status RecountedModelAtVersion(Store* store, int64_t v, size_t threads,
+                               VersionInfo* info, StoreSettings* settings,
+                               ModelCounts* out);
 
 // One document's term counts under tokenizer: terms sorted by bytes with
 // their counts. InvalidArgument when the text gives no term.
-Status RecountText(Tokenizer* tokenizer, const std::string& text, RecountedDocument* doc);
+Status RecountText(Tokenizer* tokenizer, const std::string& text,
+                   RecountedDocument* doc);
 
 // The settings as a JSON object, for a version's details:
 // {"alpha":1,"prior":"learned","bigrams":"off",...}; WriteSettings writes it

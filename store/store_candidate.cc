@@ -22,8 +22,8 @@ namespace {
 std::string EncodeMoves(const std::vector<MemberChange>& moves) {
   std::string out;
   for (const MemberChange& m : moves) {
-    out += std::to_string(m.ledger_id) + " " + std::to_string(m.from_queue) + " " +
-           std::to_string(m.to_queue) + "\n";
+    out += std::to_string(m.ledger_id) + " " + std::to_string(m.from_queue) +
+           " " + std::to_string(m.to_queue) + "\n";
   }
   return out;
 }
@@ -34,7 +34,8 @@ bool DecodeMoves(std::string_view text, std::vector<MemberChange>* out) {
     MemberChange m;
     for (int64_t* field : {&m.ledger_id, &m.from_queue, &m.to_queue}) {
       auto r = std::from_chars(text.data(), text.data() + text.size(), *field);
-      if (r.ec != std::errc() || r.ptr == text.data() + text.size()) return false;
+      if (r.ec != std::errc() || r.ptr == text.data() + text.size())
+        return false;
       text.remove_prefix(static_cast<size_t>(r.ptr - text.data()) + 1);
     }
     out->push_back(m);
@@ -44,12 +45,13 @@ bool DecodeMoves(std::string_view text, std::vector<MemberChange>* out) {
 
 }  // namespace
 
-Status Store::SaveRebuildCandidate(const StoreSettings& settings, const ChangeInfo& change,
-                                   bool* replaced) {
+Status Store::SaveRebuildCandidate(const StoreSettings& settings,
+                                   const ChangeInfo& change, bool* replaced) {
   *replaced = false;
   sqlite3* db = db_.get();
   sql::Transaction tx(db);
-  if (!tx.status().ok()) return Status::Busy(path_ + ": " + tx.status().message());
+  if (!tx.status().ok())
+    return Status::Busy(path_ + ": " + tx.status().message());
   std::optional<RecountInfo> recount;
   Status s = LoadRecount(&recount);
   if (!s.ok()) return s;
@@ -67,7 +69,8 @@ Status Store::SaveRebuildCandidate(const StoreSettings& settings, const ChangeIn
   if (s = CurrentQueuesInTransaction(&queues); !s.ok()) return s;
   if (s = CurrentMembersInTransaction(&members); !s.ok()) return s;
   sql::Statement put(db,
-                     "INSERT INTO candidate(id, kind, base_version, made, by, header, members, "
+                     "INSERT INTO candidate(id, kind, base_version, made, by, "
+                     "header, members, "
                      "moves) VALUES(1, 'rebuild', ?, ?, ?, ?, ?, '')");
   if (!put.ok()) return Status::IoError(path_ + ": " + put.error());
   s = put.Bind(1, keep ? recount->base_version : current.version)
@@ -80,13 +83,15 @@ Status Store::SaveRebuildCandidate(const StoreSettings& settings, const ChangeIn
   return tx.Commit();
 }
 
-Status Store::CorrectCandidate(const std::vector<CorrectMove>& moves, const LearnBatch& batch,
+Status Store::CorrectCandidate(const std::vector<CorrectMove>& moves,
+                               const LearnBatch& batch,
                                const ChangeInfo& change, CorrectResult* result,
                                bool* replaced) {
   *result = CorrectResult();
   sqlite3* db = db_.get();
   sql::Transaction tx(db);
-  if (!tx.status().ok()) return Status::Busy(path_ + ": " + tx.status().message());
+  if (!tx.status().ok())
+    return Status::Busy(path_ + ": " + tx.status().message());
   Status s = ClearCandidateInTransaction(replaced);
   if (!s.ok()) return s;
   std::vector<std::pair<int64_t, int64_t>> now;
@@ -96,8 +101,9 @@ Status Store::CorrectCandidate(const std::vector<CorrectMove>& moves, const Lear
   auto queue_id = [&](const std::string& name, int64_t* id) {
     auto [it, inserted] = queue_ids.emplace(name, 0);
     bool created = false;
-    Status q = inserted ? QueueIdInTransaction(name, change.now, &it->second, &created)
-                        : Status::Ok();
+    Status q =
+        inserted ? QueueIdInTransaction(name, change.now, &it->second, &created)
+                 : Status::Ok();
     *id = it->second;
     return q;
   };
@@ -136,13 +142,15 @@ Status Store::CorrectCandidate(const std::vector<CorrectMove>& moves, const Lear
     std::string from;
     bool found = false;
     if (s = move(m.digest, to, &from, &found); !s.ok()) return s;
-    if (!found) return Status::NotFound(path_ + ": " + m.digest + " is not learned");
+    if (!found)
+      return Status::NotFound(path_ + ": " + m.digest + " is not learned");
     result->from.push_back(from);
   }
   // New documents: into the ledger, out of the current model.
-  sql::Statement add(db,
-                     "INSERT INTO ledger(digest, queue_id, source, learned_at, tokens, "
-                     "term_counts, in_model, text) VALUES(?, ?, ?, ?, ?, ?, 0, ?)");
+  sql::Statement add(
+      db,
+      "INSERT INTO ledger(digest, queue_id, source, learned_at, tokens, "
+      "term_counts, in_model, text) VALUES(?, ?, ?, ?, ?, ?, 0, ?)");
   if (!add.ok()) return Status::IoError(path_ + ": " + add.error());
   LearnResult& learned = result->learned;
   std::vector<std::pair<std::string_view, int64_t>> terms;
@@ -160,9 +168,14 @@ Status Store::CorrectCandidate(const std::vector<CorrectMove>& moves, const Lear
       continue;
     }
     terms.clear();
-    for (const auto& [term, n] : d.counts) terms.emplace_back(batch.term(term), n);
+    for (const auto& [term, n] : d.counts)
+      terms.emplace_back(batch.term(term), n);
     std::sort(terms.begin(), terms.end());
-    add.Bind(1, d.digest).Bind(2, to).Bind(3, d.source).Bind(4, change.now).Bind(5, d.tokens);
+    add.Bind(1, d.digest)
+        .Bind(2, to)
+        .Bind(3, d.source)
+        .Bind(4, change.now)
+        .Bind(5, d.tokens);
     add.BindBlob(6, EncodeTermCounts(terms));
     if (d.packed_text.empty()) {
       add.BindNull(7);
@@ -182,7 +195,8 @@ Status Store::CorrectCandidate(const std::vector<CorrectMove>& moves, const Lear
   std::vector<VersionQueue> queues;
   if (s = CurrentQueuesInTransaction(&queues); !s.ok()) return s;
   sql::Statement put(db,
-                     "INSERT INTO candidate(id, kind, base_version, made, by, header, members, "
+                     "INSERT INTO candidate(id, kind, base_version, made, by, "
+                     "header, members, "
                      "moves) VALUES(1, 'correct', ?, ?, ?, ?, ?, ?)");
   if (!put.ok()) return Status::IoError(path_ + ": " + put.error());
   s = put.Bind(1, current.version)
@@ -200,9 +214,10 @@ Status Store::CorrectCandidate(const std::vector<CorrectMove>& moves, const Lear
 
 Status Store::LoadCandidate(std::optional<Candidate>* out) {
   out->reset();
-  sql::Statement st(db_.get(),
-                    "SELECT kind, base_version, made, by, header, members, moves, "
-                    "IFNULL(details, '') FROM candidate");
+  sql::Statement st(
+      db_.get(),
+      "SELECT kind, base_version, made, by, header, members, moves, "
+      "IFNULL(details, '') FROM candidate");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
   int rc = st.Step();
   if (rc == SQLITE_DONE) return Status::Ok();
@@ -213,7 +228,8 @@ Status Store::LoadCandidate(std::optional<Candidate>* out) {
   c.made = st.ColumnText(2);
   c.by = st.ColumnText(3);
   if (!DecodeHeader(st.ColumnText(4), &c.settings, &c.queues) ||
-      !DecodeMembers(st.ColumnBlob(5), &c.members) || !DecodeMoves(st.ColumnText(6), &c.moves)) {
+      !DecodeMembers(st.ColumnBlob(5), &c.members) ||
+      !DecodeMoves(st.ColumnText(6), &c.moves)) {
     return Status::Corruption(path_ + ": the candidate is damaged");
   }
   c.details = st.ColumnText(7);
@@ -226,11 +242,16 @@ Status Store::EraseFromCandidateInTransaction(const std::vector<int64_t>& ids) {
   Status s = LoadCandidate(&c);
   if (!s.ok() || !c || ids.empty()) return s;
   const std::unordered_set<int64_t> gone(ids.begin(), ids.end());
-  std::erase_if(c->members, [&](const auto& m) { return gone.count(m.first) > 0; });
-  std::erase_if(c->moves, [&](const MemberChange& m) { return gone.count(m.ledger_id) > 0; });
+  std::erase_if(c->members,
+                [&](const auto& m) { return gone.count(m.first) > 0; });
+  std::erase_if(c->moves, [&](const MemberChange& m) {
+    return gone.count(m.ledger_id) > 0;
+  });
   sql::Statement put(db_.get(), "UPDATE candidate SET members = ?, moves = ?");
   if (!put.ok()) return Status::IoError(path_ + ": " + put.error());
-  return put.BindBlob(1, EncodeMembers(c->members)).Bind(2, EncodeMoves(c->moves)).Run();
+  return put.BindBlob(1, EncodeMembers(c->members))
+      .Bind(2, EncodeMoves(c->moves))
+      .Run();
 }
 
 Status Store::SetCandidateDetails(const std::string& details) {
@@ -240,14 +261,15 @@ Status Store::SetCandidateDetails(const std::string& details) {
 }
 
 Status Store::CandidateMembers(const Candidate& candidate,
-                              std::vector<std::pair<int64_t, int64_t>>* out) {
+                               std::vector<std::pair<int64_t, int64_t>>* out) {
   sql::ReadTransaction read(db_.get());
   if (!read.status().ok()) return read.status();
   std::vector<std::pair<int64_t, int64_t>> now;
   Status s = CurrentMembersInTransaction(&now);
   if (!s.ok()) return s;
   std::map<int64_t, int64_t> members(now.begin(), now.end());
-  sql::Statement exists(db_.get(), "SELECT EXISTS (SELECT 1 FROM ledger WHERE id = ?)");
+  sql::Statement exists(db_.get(),
+                        "SELECT EXISTS (SELECT 1 FROM ledger WHERE id = ?)");
   if (!exists.ok()) return Status::IoError(path_ + ": " + exists.error());
   for (const MemberChange& m : candidate.moves) {
     exists.Bind(1, m.ledger_id);
@@ -263,12 +285,15 @@ Status Store::CurrentMembers(std::vector<std::pair<int64_t, int64_t>>* out) {
   return CurrentMembersInTransaction(out);
 }
 
-Status Store::PromoteCandidate(const ChangeInfo& change, const std::string& details,
-                               const RecountFunction& recount, RollbackResult* result) {
+Status Store::PromoteCandidate(const ChangeInfo& change,
+                               const std::string& details,
+                               const RecountFunction& recount,
+                               RollbackResult* result) {
   *result = RollbackResult();
   {
     sql::Transaction tx(db_.get());
-    if (!tx.status().ok()) return Status::Busy(path_ + ": " + tx.status().message());
+    if (!tx.status().ok())
+      return Status::Busy(path_ + ": " + tx.status().message());
     std::optional<Candidate> candidate;
     Status s = LoadCandidate(&candidate);
     if (!s.ok()) return s;
@@ -302,25 +327,29 @@ Status Store::NewestCorrections(int64_t limit, std::vector<Correction>* out) {
   // Moves made by reviewers: corrections, learning a known document under
   // another queue, and promoted candidates of corrections. A rollback's
   // moves only undo.
-  sql::Statement st(db_.get(),
-                    "SELECT c.document, c.to_queue FROM changes c "
-                    "JOIN versions v ON v.id = c.version "
-                    "WHERE c.from_queue IS NOT NULL AND c.to_queue IS NOT NULL "
-                    "AND v.command IN ('correct', 'learn', 'promote') "
-                    "AND EXISTS (SELECT 1 FROM ledger l WHERE l.id = c.document) "
-                    "ORDER BY c.version DESC, c.rowid DESC");
+  sql::Statement st(
+      db_.get(),
+      "SELECT c.document, c.to_queue FROM changes c "
+      "JOIN versions v ON v.id = c.version "
+      "WHERE c.from_queue IS NOT NULL AND c.to_queue IS NOT NULL "
+      "AND v.command IN ('correct', 'learn', 'promote') "
+      "AND EXISTS (SELECT 1 FROM ledger l WHERE l.id = c.document) "
+      "ORDER BY c.version DESC, c.rowid DESC");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
   std::unordered_set<int64_t> seen;
   int rc;
-  while (static_cast<int64_t>(out->size()) < limit && (rc = st.Step()) == SQLITE_ROW) {
-    if (seen.insert(st.ColumnInt(0)).second) out->push_back({st.ColumnInt(0), st.ColumnInt(1)});
+  while (static_cast<int64_t>(out->size()) < limit &&
+         (rc = st.Step()) == SQLITE_ROW) {
+    if (seen.insert(st.ColumnInt(0)).second)
+      out->push_back({st.ColumnInt(0), st.ColumnInt(1)});
   }
   if (static_cast<int64_t>(out->size()) >= limit) return Status::Ok();
   return rc == SQLITE_DONE ? Status::Ok() : sql::ErrorStatus(db_.get(), path_);
 }
 
-Status Store::CountsOfMembers(const std::vector<std::pair<int64_t, int64_t>>& members,
-                              bool recounted, ModelCounts* out) {
+Status Store::CountsOfMembers(
+    const std::vector<std::pair<int64_t, int64_t>>& members, bool recounted,
+    ModelCounts* out) {
   sql::ReadTransaction read(db_.get());
   if (!read.status().ok()) return read.status();
   std::vector<VersionQueue> queues;
@@ -332,16 +361,19 @@ Status Store::CountsOfMembers(const std::vector<std::pair<int64_t, int64_t>>& me
 Status Store::DocumentTerms(const std::vector<int64_t>& ids, bool recounted,
                             std::vector<std::vector<TermCount>>* out) {
   out->assign(ids.size(), {});
-  sql::Statement st(db_.get(), recounted
-                                   ? "SELECT term_counts FROM rebuild_docs WHERE ledger_id = ?"
-                                   : "SELECT term_counts FROM ledger WHERE id = ?");
+  sql::Statement st(
+      db_.get(),
+      recounted ? "SELECT term_counts FROM rebuild_docs WHERE ledger_id = ?"
+                : "SELECT term_counts FROM ledger WHERE id = ?");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
   for (size_t i = 0; i < ids.size(); ++i) {
     st.Bind(1, ids[i]);
-    const bool ok = st.Step() == SQLITE_ROW && DecodeTermCounts(st.ColumnBlob(0), &(*out)[i]);
+    const bool ok = st.Step() == SQLITE_ROW &&
+                    DecodeTermCounts(st.ColumnBlob(0), &(*out)[i]);
     st.Reset();
     if (!ok) {
-      return Status::Corruption(path_ + ": the counts of ledger entry " + std::to_string(ids[i]) +
+      return Status::Corruption(path_ + ": the counts of ledger entry " +
+                                std::to_string(ids[i]) +
                                 " are missing or do not decode");
     }
   }
@@ -353,7 +385,8 @@ Status Store::QueueNames(std::vector<std::pair<int64_t, std::string>>* out) {
   sql::Statement st(db_.get(), "SELECT id, name FROM queues ORDER BY id");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
   int rc;
-  while ((rc = st.Step()) == SQLITE_ROW) out->emplace_back(st.ColumnInt(0), st.ColumnText(1));
+  while ((rc = st.Step()) == SQLITE_ROW)
+    out->emplace_back(st.ColumnInt(0), st.ColumnText(1));
   return rc == SQLITE_DONE ? Status::Ok() : sql::ErrorStatus(db_.get(), path_);
 }
 

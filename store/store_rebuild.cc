@@ -50,27 +50,34 @@ class SideCounts {
         path_(std::move(path)),
         find_term_(db, "SELECT id FROM rebuild_terms WHERE text = ?"),
         add_term_(db, "INSERT INTO rebuild_terms(text) VALUES(?)"),
-        upsert_(db,
-                "INSERT INTO rebuild_counts(term_id, queue_id, n) VALUES(?, ?, ?) "
-                "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n"),
+        upsert_(
+            db,
+            "INSERT INTO rebuild_counts(term_id, queue_id, n) VALUES(?, ?, ?) "
+            "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n"),
         lower_(db,
-               "UPDATE rebuild_counts SET n = n - ? WHERE term_id = ? AND queue_id = ? AND n > ?"),
-        remove_(db, "DELETE FROM rebuild_counts WHERE term_id = ? AND queue_id = ? AND n = ?"),
+               "UPDATE rebuild_counts SET n = n - ? WHERE term_id = ? AND "
+               "queue_id = ? AND n > ?"),
+        remove_(db,
+                "DELETE FROM rebuild_counts WHERE term_id = ? AND queue_id = ? "
+                "AND n = ?"),
         drop_term_(db,
                    "DELETE FROM rebuild_terms WHERE id = ? AND NOT EXISTS "
                    "(SELECT 1 FROM rebuild_counts WHERE term_id = ?)"),
         totals_(db,
-                "INSERT INTO rebuild_queues(queue_id, documents, tokens) VALUES(?, ?, ?) "
-                "ON CONFLICT(queue_id) DO UPDATE SET documents = documents + excluded.documents, "
+                "INSERT INTO rebuild_queues(queue_id, documents, tokens) "
+                "VALUES(?, ?, ?) "
+                "ON CONFLICT(queue_id) DO UPDATE SET documents = documents + "
+                "excluded.documents, "
                 "tokens = tokens + excluded.tokens"),
         lower_totals_(db,
-                      "UPDATE rebuild_queues SET documents = documents + ?, tokens = tokens + ? "
+                      "UPDATE rebuild_queues SET documents = documents + ?, "
+                      "tokens = tokens + ? "
                       "WHERE queue_id = ?") {}
 
   Status status() const {
     for (const sql::Statement* st :
-         {&find_term_, &add_term_, &upsert_, &lower_, &remove_, &drop_term_, &totals_,
-          &lower_totals_}) {
+         {&find_term_, &add_term_, &upsert_, &lower_, &remove_, &drop_term_,
+          &totals_, &lower_totals_}) {
       if (!st->ok()) return Status::IoError(path_ + ": " + st->error());
     }
     return Status::Ok();
@@ -87,28 +94,38 @@ class SideCounts {
   // documents(q) += documents, N(q) += tokens. A subtraction updates the
   // row in place: the upsert's new row would fail its CHECK first.
   Status AddTotals(int64_t queue, int64_t documents, int64_t tokens) {
-    if (documents < 0) return lower_totals_.Bind(1, documents).Bind(2, tokens).Bind(3, queue).Run();
+    if (documents < 0)
+      return lower_totals_.Bind(1, documents)
+          .Bind(2, tokens)
+          .Bind(3, queue)
+          .Run();
     return totals_.Bind(1, queue).Bind(2, documents).Bind(3, tokens).Run();
   }
 
   // The reverse of adding one document's counts and totals.
-  Status Subtract(int64_t queue, int64_t tokens, const std::vector<TermCount>& terms) {
+  Status Subtract(int64_t queue, int64_t tokens,
+                  const std::vector<TermCount>& terms) {
     for (const auto& [term, n] : terms) {
       int64_t id = 0;
       Status s = TermId(term, /*create=*/false, &id);
       if (!s.ok()) return s;
-      if (s = lower_.Bind(1, n).Bind(2, id).Bind(3, queue).Bind(4, n).Run(); !s.ok()) return s;
+      if (s = lower_.Bind(1, n).Bind(2, id).Bind(3, queue).Bind(4, n).Run();
+          !s.ok())
+        return s;
       if (sqlite3_changes(db_) > 0) continue;
-      if (s = remove_.Bind(1, id).Bind(2, queue).Bind(3, n).Run(); !s.ok()) return s;
+      if (s = remove_.Bind(1, id).Bind(2, queue).Bind(3, n).Run(); !s.ok())
+        return s;
       if (sqlite3_changes(db_) == 0) {
-        return Status::Corruption(path_ + ": the recounted counts are smaller than a document's");
+        return Status::Corruption(
+            path_ + ": the recounted counts are smaller than a document's");
       }
       if (s = drop_term_.Bind(1, id).Bind(2, id).Run(); !s.ok()) return s;
     }
     return AddTotals(queue, -1, -tokens);
   }
 
-  Status Add(int64_t queue, int64_t tokens, const std::vector<TermCount>& terms) {
+  Status Add(int64_t queue, int64_t tokens,
+             const std::vector<TermCount>& terms) {
     for (const auto& [term, n] : terms) {
       if (Status s = AddCount(term, queue, n); !s.ok()) return s;
     }
@@ -123,7 +140,8 @@ class SideCounts {
     find_term_.Reset();
     if (rc == SQLITE_ROW) return Status::Ok();
     if (rc != SQLITE_DONE) return sql::ErrorStatus(db_, path_);
-    if (!create) return Status::Corruption(path_ + ": a recounted term is missing");
+    if (!create)
+      return Status::Corruption(path_ + ": a recounted term is missing");
     if (Status s = add_term_.Bind(1, term).Run(); !s.ok()) return s;
     *id = sqlite3_last_insert_rowid(db_);
     return Status::Ok();
@@ -131,40 +149,47 @@ class SideCounts {
 
   sqlite3* db_;
   std::string path_;
-  sql::Statement find_term_, add_term_, upsert_, lower_, remove_, drop_term_, totals_,
-      lower_totals_;
+  sql::Statement find_term_, add_term_, upsert_, lower_, remove_, drop_term_,
+      totals_, lower_totals_;
 };
 
 // The queue a ledger row is counted in now, or 0 (out of the model, or
 // gone). *exists says whether the row is there.
-Status MembershipOf(sql::Statement& st, int64_t id, int64_t* queue, bool* exists) {
+Status MembershipOf(sql::Statement& st, int64_t id, int64_t* queue,
+                    bool* exists) {
   st.Bind(1, id);
   int rc = st.Step();
   *exists = rc == SQLITE_ROW;
   *queue = *exists && st.ColumnInt(0) != 0 ? st.ColumnInt(1) : 0;
   st.Reset();
-  return rc == SQLITE_ROW || rc == SQLITE_DONE ? Status::Ok()
-                                               : Status::IoError("reading the ledger failed");
+  return rc == SQLITE_ROW || rc == SQLITE_DONE
+             ? Status::Ok()
+             : Status::IoError("reading the ledger failed");
 }
 
-constexpr char kMembership[] = "SELECT in_model, queue_id FROM ledger WHERE id = ?";
+constexpr char kMembership[] =
+    "SELECT in_model, queue_id FROM ledger WHERE id = ?";
 
 }  // namespace
 
-Status Store::BeginRecount(const StoreSettings& target, const ChangeInfo& change,
-                           int64_t* base_version, bool* replaced) {
+Status Store::BeginRecount(const StoreSettings& target,
+                           const ChangeInfo& change, int64_t* base_version,
+                           bool* replaced) {
   sqlite3* db = db_.get();
   Status s = DropRecountLeftovers();
   if (!s.ok()) return s;
   sql::Transaction tx(db);
-  if (!tx.status().ok()) return Status::Busy(path_ + ": " + tx.status().message());
+  if (!tx.status().ok())
+    return Status::Busy(path_ + ": " + tx.status().message());
   if (s = ClearCandidateInTransaction(replaced); !s.ok()) return s;
-  if (s = sql::Exec(db, kSideTables); !s.ok()) return Status::IoError(path_ + ": " + s.message());
+  if (s = sql::Exec(db, kSideTables); !s.ok())
+    return Status::IoError(path_ + ": " + s.message());
   VersionInfo current;
   if (s = CurrentVersion(&current); !s.ok()) return s;
-  sql::Statement put(db,
-                     "INSERT INTO rebuild(id, base_version, settings, started, by) "
-                     "VALUES(1, ?, ?, ?, ?)");
+  sql::Statement put(
+      db,
+      "INSERT INTO rebuild(id, base_version, settings, started, by) "
+      "VALUES(1, ?, ?, ?, ?)");
   if (!put.ok()) return Status::IoError(path_ + ": " + put.error());
   s = put.Bind(1, current.version)
           .Bind(2, EncodeHeader(target, {}))
@@ -180,19 +205,22 @@ Status Store::ClearCandidateInTransaction(bool* had_candidate) {
   sqlite3* db = db_.get();
   {
     sql::Statement any(db, "SELECT EXISTS (SELECT 1 FROM candidate)");
-    if (!any.ok() || any.Step() != SQLITE_ROW) return sql::ErrorStatus(db, path_);
+    if (!any.ok() || any.Step() != SQLITE_ROW)
+      return sql::ErrorStatus(db, path_);
     *had_candidate = any.ColumnInt(0) != 0;
   }
-  Status s = sql::Exec(db,
-                       "DELETE FROM candidate; DELETE FROM rebuild; DELETE FROM rebuild_docs; "
-                       "DELETE FROM rebuild_queues; DROP TABLE IF EXISTS rebuild_counts; "
-                       "DROP TABLE IF EXISTS rebuild_terms;");
+  Status s = sql::Exec(
+      db,
+      "DELETE FROM candidate; DELETE FROM rebuild; DELETE FROM rebuild_docs; "
+      "DELETE FROM rebuild_queues; DROP TABLE IF EXISTS rebuild_counts; "
+      "DROP TABLE IF EXISTS rebuild_terms;");
   return s.ok() ? s : Status::IoError(path_ + ": " + s.message());
 }
 
 Status Store::DiscardRecount() {
   sql::Transaction tx(db_.get());
-  if (!tx.status().ok()) return Status::Busy(path_ + ": " + tx.status().message());
+  if (!tx.status().ok())
+    return Status::Busy(path_ + ": " + tx.status().message());
   bool had = false;
   Status s = ClearCandidateInTransaction(&had);
   if (!s.ok()) return s;
@@ -201,10 +229,12 @@ Status Store::DiscardRecount() {
 
 Status Store::DropRecountLeftovers() {
   sql::Transaction tx(db_.get());
-  if (!tx.status().ok()) return Status::Busy(path_ + ": " + tx.status().message());
+  if (!tx.status().ok())
+    return Status::Busy(path_ + ": " + tx.status().message());
   // Only once no recount is kept: the side tables may belong to one.
   sql::Statement any(db_.get(), "SELECT EXISTS (SELECT 1 FROM rebuild)");
-  if (!any.ok() || any.Step() != SQLITE_ROW) return sql::ErrorStatus(db_.get(), path_);
+  if (!any.ok() || any.Step() != SQLITE_ROW)
+    return sql::ErrorStatus(db_.get(), path_);
   const bool kept = any.ColumnInt(0) != 0;
   any.Reset();
   Status s = sql::Exec(db_.get(), kept ? "DROP TABLE IF EXISTS counts_old; "
@@ -216,7 +246,8 @@ Status Store::DropRecountLeftovers() {
 
 Status Store::LoadRecount(std::optional<RecountInfo>* out) {
   out->reset();
-  sql::Statement st(db_.get(), "SELECT base_version, settings, started, by FROM rebuild");
+  sql::Statement st(db_.get(),
+                    "SELECT base_version, settings, started, by FROM rebuild");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
   int rc = st.Step();
   if (rc == SQLITE_DONE) return Status::Ok();
@@ -235,35 +266,43 @@ Status Store::LoadRecount(std::optional<RecountInfo>* out) {
 
 Status Store::WriteRecounted(const std::vector<RecountedDocument>& docs) {
   sql::Transaction tx(db_.get());
-  if (!tx.status().ok()) return Status::Busy(path_ + ": " + tx.status().message());
+  if (!tx.status().ok())
+    return Status::Busy(path_ + ": " + tx.status().message());
   Status s = WriteRecountedInTransaction(docs);
   if (!s.ok()) return s;
   return tx.Commit();
 }
 
-Status Store::WriteRecountedInTransaction(const std::vector<RecountedDocument>& docs) {
+Status Store::WriteRecountedInTransaction(
+    const std::vector<RecountedDocument>& docs) {
   sqlite3* db = db_.get();
   {
     sql::Statement active(db, "SELECT EXISTS (SELECT 1 FROM rebuild)");
-    if (!active.ok() || active.Step() != SQLITE_ROW) return sql::ErrorStatus(db, path_);
+    if (!active.ok() || active.Step() != SQLITE_ROW)
+      return sql::ErrorStatus(db, path_);
     if (active.ColumnInt(0) == 0) {
-      return Status::InvalidArgument(path_ + ": no rebuild is in progress (another one replaced it)");
+      return Status::InvalidArgument(
+          path_ + ": no rebuild is in progress (another one replaced it)");
     }
   }
   SideCounts side(db, path_);
   if (Status s = side.status(); !s.ok()) return s;
   sql::Statement member(db, kMembership);
-  sql::Statement known(db, "SELECT EXISTS (SELECT 1 FROM rebuild_docs WHERE ledger_id = ?)");
-  sql::Statement put(db,
-                     "INSERT INTO rebuild_docs(ledger_id, counted_queue, tokens, term_counts) "
-                     "VALUES(?, ?, ?, ?)");
+  sql::Statement known(
+      db, "SELECT EXISTS (SELECT 1 FROM rebuild_docs WHERE ledger_id = ?)");
+  sql::Statement put(
+      db,
+      "INSERT INTO rebuild_docs(ledger_id, counted_queue, tokens, term_counts) "
+      "VALUES(?, ?, ?, ?)");
   if (!member.ok() || !known.ok() || !put.ok()) {
-    return Status::IoError(path_ + ": " + member.error() + known.error() + put.error());
+    return Status::IoError(path_ + ": " + member.error() + known.error() +
+                           put.error());
   }
   // Summed over the batch first, so that each (term, queue) is written once,
   // in key order.
   std::map<std::pair<std::string_view, int64_t>, int64_t> sums;
-  std::map<int64_t, std::pair<int64_t, int64_t>> totals;  // queue -> documents, tokens
+  std::map<int64_t, std::pair<int64_t, int64_t>>
+      totals;  // queue -> documents, tokens
   for (const RecountedDocument& d : docs) {
     known.Bind(1, d.ledger_id);
     const bool done = known.Step() == SQLITE_ROW && known.ColumnInt(0) != 0;
@@ -271,7 +310,8 @@ Status Store::WriteRecountedInTransaction(const std::vector<RecountedDocument>& 
     if (done) continue;
     int64_t queue = 0;
     bool exists = false;
-    if (Status s = MembershipOf(member, d.ledger_id, &queue, &exists); !s.ok()) {
+    if (Status s = MembershipOf(member, d.ledger_id, &queue, &exists);
+        !s.ok()) {
       return Status::IoError(path_ + ": " + s.message());
     }
     if (!exists) continue;  // forgotten since it was read
@@ -285,12 +325,16 @@ Status Store::WriteRecountedInTransaction(const std::vector<RecountedDocument>& 
     } else {
       put.BindNull(2);
     }
-    if (Status s = put.Bind(3, d.tokens).BindBlob(4, EncodeTermCounts(d.terms)).Run(); !s.ok()) {
+    if (Status s =
+            put.Bind(3, d.tokens).BindBlob(4, EncodeTermCounts(d.terms)).Run();
+        !s.ok()) {
       return s;
     }
   }
   for (const auto& [key, n] : sums) {
-    if (Status s = side.AddCount(std::string(key.first), key.second, n); !s.ok()) return s;
+    if (Status s = side.AddCount(std::string(key.first), key.second, n);
+        !s.ok())
+      return s;
   }
   for (const auto& [queue, t] : totals) {
     if (Status s = side.AddTotals(queue, t.first, t.second); !s.ok()) return s;
@@ -300,9 +344,10 @@ Status Store::WriteRecountedInTransaction(const std::vector<RecountedDocument>& 
 
 Status Store::ForgetRecountInTransaction(int64_t ledger_id) {
   sqlite3* db = db_.get();
-  sql::Statement st(db,
-                    "SELECT counted_queue, tokens, term_counts FROM rebuild_docs "
-                    "WHERE ledger_id = ?");
+  sql::Statement st(
+      db,
+      "SELECT counted_queue, tokens, term_counts FROM rebuild_docs "
+      "WHERE ledger_id = ?");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
   st.Bind(1, ledger_id);
   int rc = st.Step();
@@ -311,8 +356,10 @@ Status Store::ForgetRecountInTransaction(int64_t ledger_id) {
   // Once swapped in (the rebuild row gone), the side counts are the model's
   // and only the row is left to delete.
   sql::Statement active(db, "SELECT EXISTS (SELECT 1 FROM rebuild)");
-  if (!active.ok() || active.Step() != SQLITE_ROW) return sql::ErrorStatus(db, path_);
-  const int64_t queue = st.ColumnIsNull(0) || active.ColumnInt(0) == 0 ? 0 : st.ColumnInt(0);
+  if (!active.ok() || active.Step() != SQLITE_ROW)
+    return sql::ErrorStatus(db, path_);
+  const int64_t queue =
+      st.ColumnIsNull(0) || active.ColumnInt(0) == 0 ? 0 : st.ColumnInt(0);
   const int64_t tokens = st.ColumnInt(1);
   std::vector<TermCount> terms;
   if (!DecodeTermCounts(st.ColumnBlob(2), &terms)) {
@@ -332,9 +379,10 @@ Status Store::ForgetRecountInTransaction(int64_t ledger_id) {
 
 Status Store::UnrecountedDocuments(std::vector<int64_t>* ids) {
   ids->clear();
-  sql::Statement st(db_.get(),
-                    "SELECT l.id FROM ledger l WHERE NOT EXISTS "
-                    "(SELECT 1 FROM rebuild_docs r WHERE r.ledger_id = l.id) ORDER BY l.id");
+  sql::Statement st(
+      db_.get(),
+      "SELECT l.id FROM ledger l WHERE NOT EXISTS "
+      "(SELECT 1 FROM rebuild_docs r WHERE r.ledger_id = l.id) ORDER BY l.id");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
   int rc;
   while ((rc = st.Step()) == SQLITE_ROW) ids->push_back(st.ColumnInt(0));
@@ -342,8 +390,10 @@ Status Store::UnrecountedDocuments(std::vector<int64_t>* ids) {
 }
 
 Status Store::CountKeptTexts(int64_t* documents, int64_t* without_text) {
-  sql::Statement st(db_.get(), "SELECT COUNT(*), COUNT(*) - COUNT(text) FROM ledger");
-  if (!st.ok() || st.Step() != SQLITE_ROW) return sql::ErrorStatus(db_.get(), path_);
+  sql::Statement st(db_.get(),
+                    "SELECT COUNT(*), COUNT(*) - COUNT(text) FROM ledger");
+  if (!st.ok() || st.Step() != SQLITE_ROW)
+    return sql::ErrorStatus(db_.get(), path_);
   *documents = st.ColumnInt(0);
   *without_text = st.ColumnInt(1);
   return Status::Ok();
@@ -351,7 +401,8 @@ Status Store::CountKeptTexts(int64_t* documents, int64_t* without_text) {
 
 Status Store::ReadTextsOf(
     const std::vector<int64_t>& ids,
-    const std::function<Status(int64_t id, const std::optional<std::string>&)>& fn) {
+    const std::function<Status(int64_t id, const std::optional<std::string>&)>&
+        fn) {
   sql::Statement st(db_.get(), "SELECT text FROM ledger WHERE id = ?");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
   TextCodec codec;
@@ -369,7 +420,8 @@ Status Store::ReadTextsOf(
       std::string unpacked;
       if (Status s = codec.Unpack(st.ColumnBlob(0), &unpacked); !s.ok()) {
         return Status::Corruption(path_ + ": the kept text of ledger entry " +
-                                  std::to_string(id) + " does not unpack: " + s.message());
+                                  std::to_string(id) +
+                                  " does not unpack: " + s.message());
       }
       text = std::move(unpacked);
     }
@@ -380,13 +432,15 @@ Status Store::ReadTextsOf(
 }
 
 Status Store::SwapRecount(const std::string& command, const ChangeInfo& change,
-                          const std::string& details, const RecountFunction& recount,
-                          SwapResult* result) {
+                          const std::string& details,
+                          const RecountFunction& recount, SwapResult* result) {
   *result = SwapResult();
   {
     sql::Transaction tx(db_.get());
-    if (!tx.status().ok()) return Status::Busy(path_ + ": " + tx.status().message());
-    Status s = SwapRecountInTransaction(command, change, details, recount, result);
+    if (!tx.status().ok())
+      return Status::Busy(path_ + ": " + tx.status().message());
+    Status s =
+        SwapRecountInTransaction(command, change, details, recount, result);
     if (!s.ok()) return s;
     s = tx.Commit();
     if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
@@ -396,35 +450,40 @@ Status Store::SwapRecount(const std::string& command, const ChangeInfo& change,
   return Status::Ok();
 }
 
-Status Store::SwapRecountInTransaction(const std::string& command, const ChangeInfo& change,
+Status Store::SwapRecountInTransaction(const std::string& command,
+                                       const ChangeInfo& change,
                                        const std::string& details,
-                                       const RecountFunction& recount, SwapResult* result) {
+                                       const RecountFunction& recount,
+                                       SwapResult* result) {
   sqlite3* db = db_.get();
   std::optional<RecountInfo> info;
   Status s = LoadRecount(&info);
   if (!s.ok()) return s;
-  if (!info) return Status::NotFound(path_ + ": there is no recount to swap in");
+  if (!info)
+    return Status::NotFound(path_ + ": there is no recount to swap in");
 
   // Documents learned since the last look: recounted now, from their text.
   std::vector<int64_t> missing;
   if (s = UnrecountedDocuments(&missing); !s.ok()) return s;
   std::vector<RecountedDocument> caught;
   int64_t without_text = 0;
-  s = ReadTextsOf(missing, [&](int64_t id, const std::optional<std::string>& text) {
-    if (!text) {
-      ++without_text;
-      return Status::Ok();
-    }
-    RecountedDocument d;
-    d.ledger_id = id;
-    Status r = recount(*text, &d);
-    if (r.ok()) caught.push_back(std::move(d));
-    return r;
-  });
+  s = ReadTextsOf(missing,
+                  [&](int64_t id, const std::optional<std::string>& text) {
+                    if (!text) {
+                      ++without_text;
+                      return Status::Ok();
+                    }
+                    RecountedDocument d;
+                    d.ledger_id = id;
+                    Status r = recount(*text, &d);
+                    if (r.ok()) caught.push_back(std::move(d));
+                    return r;
+                  });
   if (!s.ok()) return s;
   if (without_text > 0) {
-    return Status::InvalidArgument(path_ + ": " + std::to_string(without_text) +
-                                   " documents learned during the rebuild have no kept text");
+    return Status::InvalidArgument(
+        path_ + ": " + std::to_string(without_text) +
+        " documents learned during the rebuild have no kept text");
   }
   if (s = WriteRecountedInTransaction(caught); !s.ok()) return s;
   result->caught_up = static_cast<int64_t>(caught.size());
@@ -434,13 +493,16 @@ Status Store::SwapRecountInTransaction(const std::string& command, const ChangeI
   // part of the log was pruned).
   std::vector<int64_t> touched;
   {
-    sql::Statement base(db, "SELECT EXISTS (SELECT 1 FROM versions WHERE id = ?)");
+    sql::Statement base(db,
+                        "SELECT EXISTS (SELECT 1 FROM versions WHERE id = ?)");
     base.Bind(1, info->base_version);
-    if (!base.ok() || base.Step() != SQLITE_ROW) return sql::ErrorStatus(db, path_);
+    if (!base.ok() || base.Step() != SQLITE_ROW)
+      return sql::ErrorStatus(db, path_);
     const bool logged = base.ColumnInt(0) != 0;
     base.Reset();
-    sql::Statement st(db, logged ? "SELECT DISTINCT document FROM changes WHERE version > ?"
-                                 : "SELECT id FROM ledger WHERE ? IS NOT NULL");
+    sql::Statement st(
+        db, logged ? "SELECT DISTINCT document FROM changes WHERE version > ?"
+                   : "SELECT id FROM ledger WHERE ? IS NOT NULL");
     if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
     st.Bind(1, info->base_version);
     int rc;
@@ -452,11 +514,14 @@ Status Store::SwapRecountInTransaction(const std::string& command, const ChangeI
     if (s = side.status(); !s.ok()) return s;
     sql::Statement member(db, kMembership);
     sql::Statement doc(db,
-                       "SELECT IFNULL(counted_queue, 0), tokens, term_counts FROM rebuild_docs "
+                       "SELECT IFNULL(counted_queue, 0), tokens, term_counts "
+                       "FROM rebuild_docs "
                        "WHERE ledger_id = ?");
-    sql::Statement mark(db, "UPDATE rebuild_docs SET counted_queue = ? WHERE ledger_id = ?");
+    sql::Statement mark(
+        db, "UPDATE rebuild_docs SET counted_queue = ? WHERE ledger_id = ?");
     if (!member.ok() || !doc.ok() || !mark.ok()) {
-      return Status::IoError(path_ + ": " + member.error() + doc.error() + mark.error());
+      return Status::IoError(path_ + ": " + member.error() + doc.error() +
+                             mark.error());
     }
     std::vector<TermCount> terms;
     for (int64_t id : touched) {
@@ -475,9 +540,12 @@ Status Store::SwapRecountInTransaction(const std::string& command, const ChangeI
       const int64_t tokens = doc.ColumnInt(1);
       const bool decoded = DecodeTermCounts(doc.ColumnBlob(2), &terms);
       doc.Reset();
-      if (!decoded) return Status::Corruption(path_ + ": a recounted document does not decode");
+      if (!decoded)
+        return Status::Corruption(path_ +
+                                  ": a recounted document does not decode");
       if (counted == queue) continue;
-      if (counted && (s = side.Subtract(counted, tokens, terms), !s.ok())) return s;
+      if (counted && (s = side.Subtract(counted, tokens, terms), !s.ok()))
+        return s;
       if (queue && (s = side.Add(queue, tokens, terms), !s.ok())) return s;
       mark.Bind(2, id);
       if (queue) {
@@ -493,30 +561,35 @@ Status Store::SwapRecountInTransaction(const std::string& command, const ChangeI
   // Nothing may be missing: every ledger document recounted, every queue
   // with the current model's number of documents.
   {
-    sql::Statement st(db,
-                      "SELECT (SELECT COUNT(*) FROM ledger) - (SELECT COUNT(*) FROM rebuild_docs), "
-                      "(SELECT COUNT(*) FROM queues q LEFT JOIN rebuild_queues r "
-                      "ON r.queue_id = q.id WHERE q.documents != IFNULL(r.documents, 0))");
+    sql::Statement st(
+        db,
+        "SELECT (SELECT COUNT(*) FROM ledger) - (SELECT COUNT(*) FROM "
+        "rebuild_docs), "
+        "(SELECT COUNT(*) FROM queues q LEFT JOIN rebuild_queues r "
+        "ON r.queue_id = q.id WHERE q.documents != IFNULL(r.documents, 0))");
     if (!st.ok() || st.Step() != SQLITE_ROW) return sql::ErrorStatus(db, path_);
     if (st.ColumnInt(0) != 0 || st.ColumnInt(1) != 0) {
-      return Status::Corruption(path_ + ": the recount does not cover the current model (" +
-                                std::to_string(st.ColumnInt(0)) + " documents, " +
-                                std::to_string(st.ColumnInt(1)) +
-                                " queues differ); nothing was changed");
+      return Status::Corruption(
+          path_ + ": the recount does not cover the current model (" +
+          std::to_string(st.ColumnInt(0)) + " documents, " +
+          std::to_string(st.ColumnInt(1)) +
+          " queues differ); nothing was changed");
     }
   }
 
   // The swap: every ledger entry's own counts, then the tables by name.
-  s = sql::Exec(db,
-                "UPDATE ledger SET tokens = r.tokens, term_counts = r.term_counts "
-                "FROM rebuild_docs r WHERE r.ledger_id = ledger.id;"
-                "UPDATE queues SET tokens = IFNULL((SELECT r.tokens FROM rebuild_queues r "
-                "WHERE r.queue_id = queues.id), 0);"
-                "ALTER TABLE counts RENAME TO counts_old;"
-                "ALTER TABLE terms RENAME TO terms_old;"
-                "ALTER TABLE rebuild_terms RENAME TO terms;"
-                "ALTER TABLE rebuild_counts RENAME TO counts;"
-                "DELETE FROM rebuild; DELETE FROM candidate;");
+  s = sql::Exec(
+      db,
+      "UPDATE ledger SET tokens = r.tokens, term_counts = r.term_counts "
+      "FROM rebuild_docs r WHERE r.ledger_id = ledger.id;"
+      "UPDATE queues SET tokens = IFNULL((SELECT r.tokens FROM rebuild_queues "
+      "r "
+      "WHERE r.queue_id = queues.id), 0);"
+      "ALTER TABLE counts RENAME TO counts_old;"
+      "ALTER TABLE terms RENAME TO terms_old;"
+      "ALTER TABLE rebuild_terms RENAME TO terms;"
+      "ALTER TABLE rebuild_counts RENAME TO counts;"
+      "DELETE FROM rebuild; DELETE FROM candidate;");
   if (!s.ok()) return Status::IoError(path_ + ": " + s.message());
   if (s = SaveSettingsInTransaction(info->settings); !s.ok()) return s;
   if (command.empty()) return Status::Ok();
@@ -526,26 +599,30 @@ Status Store::SwapRecountInTransaction(const std::string& command, const ChangeI
 }
 
 Status Store::RollbackWithRecount(int64_t v, const ChangeInfo& change,
-                                  const RecountFunction& recount, RollbackResult* result) {
+                                  const RecountFunction& recount,
+                                  RollbackResult* result) {
   *result = RollbackResult();
   {
     sql::Transaction tx(db_.get());
-    if (!tx.status().ok()) return Status::Busy(path_ + ": " + tx.status().message());
+    if (!tx.status().ok())
+      return Status::Busy(path_ + ": " + tx.status().message());
     VersionState target;
     Status s = LoadVersionState(v, &target);
     if (!s.ok()) return s;
     std::optional<RecountInfo> info;
     if (s = LoadRecount(&info); !s.ok()) return s;
     if (!info || !SameTokenizing(info->settings, target.settings)) {
-      return Status::InvalidArgument(path_ + ": no recount with the tokenizing settings of version " +
-                                     std::to_string(v) + " is ready");
+      return Status::InvalidArgument(
+          path_ + ": no recount with the tokenizing settings of version " +
+          std::to_string(v) + " is ready");
     }
     SwapResult swap;
     s = SwapRecountInTransaction("", change, "", recount, &swap);
     if (s.ok()) {
-      s = ApplyStateInTransaction(target, "rollback", change,
-                                  "{\"rollback_to\":" + std::to_string(v) + ",\"recounted\":true}",
-                                  result);
+      s = ApplyStateInTransaction(
+          target, "rollback", change,
+          "{\"rollback_to\":" + std::to_string(v) + ",\"recounted\":true}",
+          result);
     }
     if (!s.ok()) return s;
     s = tx.Commit();
@@ -555,19 +632,24 @@ Status Store::RollbackWithRecount(int64_t v, const ChangeInfo& change,
   return Status::Ok();
 }
 
-Status Store::ChangeModelSettings(const StoreSettings& settings, const std::string& command,
-                                  const ChangeInfo& change, const std::string& details,
+Status Store::ChangeModelSettings(const StoreSettings& settings,
+                                  const std::string& command,
+                                  const ChangeInfo& change,
+                                  const std::string& details,
                                   VersionInfo* made) {
   if (!SameTokenizing(settings, settings_)) {
-    return Status::InvalidArgument(path_ + ": other tokenizing settings need a recount");
+    return Status::InvalidArgument(
+        path_ + ": other tokenizing settings need a recount");
   }
   sql::Transaction tx(db_.get());
-  if (!tx.status().ok()) return Status::Busy(path_ + ": " + tx.status().message());
+  if (!tx.status().ok())
+    return Status::Busy(path_ + ": " + tx.status().message());
   Status s = SaveSettingsInTransaction(settings);
   if (!s.ok()) return s;
   VersionDelta delta;
   delta.details = details;
-  if (s = RecordVersionInTransaction(command, change, delta, made); !s.ok()) return s;
+  if (s = RecordVersionInTransaction(command, change, delta, made); !s.ok())
+    return s;
   s = tx.Commit();
   return s.ok() ? s : Status::IoError(path_ + ": commit: " + s.message());
 }

@@ -42,10 +42,12 @@ class RecountTest : public ::testing::Test {
   void Learn(Store* store, int first, int last) {
     Tokenizer tokenizer(store->settings().tokenizer);
     LearnBatch batch;
-    const char* words[] = {"berth", "pier", "invoice", "dues", "marina", "yacht", "fee", "tide"};
+    const char* words[] = {"berth",  "pier",  "invoice", "dues",
+                           "marina", "yacht", "fee",     "tide"};
     for (int i = first; i < last; ++i) {
       std::string text;
-      for (int k = 0; k < 7; ++k) text += std::string(k ? " " : "") + words[(i * 5 + k * 3) % 8];
+      for (int k = 0; k < 7; ++k)
+        text += std::string(k ? " " : "") + words[(i * 5 + k * 3) % 8];
       std::vector<std::string> terms;
       tokenizer.Tokenize(text, &terms);
       std::string packed;
@@ -93,15 +95,19 @@ TEST_F(RecountTest, RollbackAndRouteReachBackAcrossATokenizingRebuild) {
   VersionInfo info;
   StoreSettings settings;
   ModelCounts counts;
-  EXPECT_EQ(store->ModelAtVersion(before.version, &info, &settings, &counts).code(),
-            Status::Code::kInvalidArgument);
-  ASSERT_TRUE(
-      RecountedModelAtVersion(store.get(), before.version, 2, &info, &settings, &counts).ok());
+  EXPECT_EQ(
+      store->ModelAtVersion(before.version, &info, &settings, &counts).code(),
+      Status::Code::kInvalidArgument);
+  ASSERT_TRUE(RecountedModelAtVersion(store.get(), before.version, 2, &info,
+                                      &settings, &counts)
+                  .ok());
   EXPECT_FALSE(settings.tokenizer.bigrams);
   ExpectSameCounts(counts, at_before);
 
   RollbackResult result;
-  ASSERT_TRUE(RollbackAcrossTokenizing(store.get(), before.version, kChange, 2, &result).ok());
+  ASSERT_TRUE(
+      RollbackAcrossTokenizing(store.get(), before.version, kChange, 2, &result)
+          .ok());
   EXPECT_EQ(result.made.command, "rollback");
   EXPECT_EQ(result.removed, 4);
   EXPECT_FALSE(store->settings().tokenizer.bigrams);

@@ -19,16 +19,20 @@ using nlohmann::json;
 
 // Words of each queue, and a few every queue uses.
 const std::vector<std::string> kBerthWords = {
-    "berth",  "pier",     "vessel",  "mooring", "arrival", "reserve", "nights", "quay",
-    "tide",   "pilot",    "anchor",  "slot",    "captain", "ferry",   "dock",   "schedule"};
+    "berth",   "pier",  "vessel", "mooring", "arrival", "reserve",
+    "nights",  "quay",  "tide",   "pilot",   "anchor",  "slot",
+    "captain", "ferry", "dock",   "schedule"};
 const std::vector<std::string> kBillingWords = {
-    "invoice", "dues",    "payment", "refund", "fee",     "statement", "amount", "credit",
-    "overdue", "account", "receipt", "tax",    "balance", "charge",    "bank",   "transfer"};
-const std::vector<std::string> kShared = {"the", "harbour", "please", "2026", "office", "of"};
+    "invoice", "dues",   "payment", "refund",  "fee",     "statement",
+    "amount",  "credit", "overdue", "account", "receipt", "tax",
+    "balance", "charge", "bank",    "transfer"};
+const std::vector<std::string> kShared = {"the",  "harbour", "please",
+                                          "2026", "office",  "of"};
 
 // A letter of `words` from a queue's pool (and shared words), the same for
 // the same seed (a linear congruential generator, common practice).
-std::string Letter(const std::vector<std::string>& pool, unsigned seed, int words = 12) {
+std::string Letter(const std::vector<std::string>& pool, unsigned seed,
+                   int words = 12) {
   uint32_t x = seed * 2654435761u + 12345u;
   std::string out;
   for (int i = 0; i < words; ++i) {
@@ -41,7 +45,9 @@ std::string Letter(const std::vector<std::string>& pool, unsigned seed, int word
 
 class RebuildPromoteTest : public ::testing::Test {
  protected:
-  RunResult Chute(const std::vector<std::string>& args) { return RunChute(args, dir_.path()); }
+  RunResult Chute(const std::vector<std::string>& args) {
+    return RunChute(args, dir_.path());
+  }
 
   void Ok(const std::vector<std::string>& args) {
     RunResult r = Chute(args);
@@ -51,19 +57,23 @@ class RebuildPromoteTest : public ::testing::Test {
   // ROOT/berths and ROOT/billing with n letters each, and an inbox.
   void WriteTree(const std::string& root, int n) {
     for (int i = 0; i < n; ++i) {
-      dir_.Write(root + "/berths/b" + std::to_string(i) + ".txt", Letter(kBerthWords, 100 + i));
+      dir_.Write(root + "/berths/b" + std::to_string(i) + ".txt",
+                 Letter(kBerthWords, 100 + i));
       dir_.Write(root + "/billing/i" + std::to_string(i) + ".txt",
                  Letter(kBillingWords, 500 + i));
     }
     for (int i = 0; i < 6; ++i) {
-      dir_.Write("inbox/berth" + std::to_string(i) + ".txt", Letter(kBerthWords, 900 + i, 8));
-      dir_.Write("inbox/bill" + std::to_string(i) + ".txt", Letter(kBillingWords, 950 + i, 8));
+      dir_.Write("inbox/berth" + std::to_string(i) + ".txt",
+                 Letter(kBerthWords, 900 + i, 8));
+      dir_.Write("inbox/bill" + std::to_string(i) + ".txt",
+                 Letter(kBillingWords, 950 + i, 8));
     }
   }
 
   // Each routed document's file and top posteriors, as printed.
   std::vector<std::string> Routes(const std::string& db) {
-    RunResult r = Chute({"route", "--db", db, "inbox", "--format", "jsonl", "--top", "5"});
+    RunResult r = Chute(
+        {"route", "--db", db, "inbox", "--format", "jsonl", "--top", "5"});
     EXPECT_EQ(r.exit_code, 0) << r.err;
     std::vector<std::string> out;
     for (const std::string& line : Lines(r.out)) {
@@ -91,13 +101,16 @@ class RebuildPromoteTest : public ::testing::Test {
   TempDir dir_;
 };
 
-TEST_F(RebuildPromoteTest, SmoothingChangesWithoutKeptTextAndMatchesAFreshStore) {
+TEST_F(RebuildPromoteTest,
+       SmoothingChangesWithoutKeptTextAndMatchesAFreshStore) {
   WriteTree("lab", 6);
   Fresh("a.db", "lab", {"--keep-text", "off"});
-  RunResult r = Chute({"rebuild", "--db", "a.db", "--alpha", "0.25", "--prior", "uniform"});
+  RunResult r = Chute(
+      {"rebuild", "--db", "a.db", "--alpha", "0.25", "--prior", "uniform"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
   EXPECT_NE(r.out.find("version"), std::string::npos) << r.out;
-  Fresh("b.db", "lab", {"--keep-text", "off", "--alpha", "0.25", "--prior", "uniform"});
+  Fresh("b.db", "lab",
+        {"--keep-text", "off", "--alpha", "0.25", "--prior", "uniform"});
   EXPECT_EQ(Routes("a.db"), Routes("b.db"));
   Ok({"check", "--db", "a.db"});
 }
@@ -108,22 +121,27 @@ TEST_F(RebuildPromoteTest, RefusesATokenizingChangeWithoutKeptText) {
   const std::vector<std::string> before = Routes("a.db");
   RunResult r = Chute({"rebuild", "--db", "a.db", "--bigrams", "on"});
   EXPECT_EQ(r.exit_code, 1);
-  EXPECT_NE(r.err.find("8 of 8 learned documents have no kept text"), std::string::npos) << r.err;
+  EXPECT_NE(r.err.find("8 of 8 learned documents have no kept text"),
+            std::string::npos)
+      << r.err;
   EXPECT_EQ(Lines(r.err).size(), 1u) << r.err;
   EXPECT_EQ(Routes("a.db"), before);
   Ok({"check", "--db", "a.db"});
 }
 
-TEST_F(RebuildPromoteTest, TokenizingRebuildEqualsAFreshStoreWithTheNewSettings) {
+TEST_F(RebuildPromoteTest,
+       TokenizingRebuildEqualsAFreshStoreWithTheNewSettings) {
   WriteTree("lab", 8);
   Fresh("a.db", "lab", {});
   const std::vector<std::string> old_routes = Routes("a.db");
-  RunResult r = Chute({"rebuild", "--db", "a.db", "--bigrams", "on", "--numbers", "fold",
-                       "--min-length", "2", "--alpha", "0.5", "--threads", "2"});
+  RunResult r =
+      Chute({"rebuild", "--db", "a.db", "--bigrams", "on", "--numbers", "fold",
+             "--min-length", "2", "--alpha", "0.5", "--threads", "2"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
   EXPECT_NE(r.out.find("recounted 16 documents"), std::string::npos) << r.out;
-  Fresh("b.db", "lab", {"--bigrams", "on", "--numbers", "fold", "--min-length", "2", "--alpha",
-                        "0.5"});
+  Fresh("b.db", "lab",
+        {"--bigrams", "on", "--numbers", "fold", "--min-length", "2", "--alpha",
+         "0.5"});
   EXPECT_EQ(Routes("a.db"), Routes("b.db"));
   EXPECT_NE(Routes("a.db"), old_routes);
   EXPECT_EQ(Queues("a.db"), Queues("b.db"));
@@ -140,7 +158,8 @@ TEST_F(RebuildPromoteTest, ACandidateCatchesUpWithLearningBeforeItIsPromoted) {
   WriteTree("lab", 6);
   Fresh("a.db", "lab", {});
   const std::vector<std::string> old_routes = Routes("a.db");
-  RunResult r = Chute({"rebuild", "--db", "a.db", "--bigrams", "on", "--candidate"});
+  RunResult r =
+      Chute({"rebuild", "--db", "a.db", "--bigrams", "on", "--candidate"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
   EXPECT_EQ(Routes("a.db"), old_routes);  // the current model did not change
   // Learned after the candidate was made: the promotion recounts it.
@@ -161,17 +180,22 @@ TEST_F(RebuildPromoteTest, RefusesSettingsUnderWhichADocumentHasNoTerm) {
   WriteTree("lab", 3);
   Fresh("a.db", "lab", {});
   const std::vector<std::string> before = Routes("a.db");
-  RunResult r = Chute({"rebuild", "--db", "a.db", "--min-length", "40", "--max-length", "64"});
+  RunResult r = Chute(
+      {"rebuild", "--db", "a.db", "--min-length", "40", "--max-length", "64"});
   EXPECT_EQ(r.exit_code, 1);
-  EXPECT_NE(r.err.find("would have no term under the new settings"), std::string::npos) << r.err;
+  EXPECT_NE(r.err.find("would have no term under the new settings"),
+            std::string::npos)
+      << r.err;
   EXPECT_EQ(Routes("a.db"), before);
   Ok({"check", "--db", "a.db"});
 }
 
-TEST_F(RebuildPromoteTest, ADocumentForgottenMeanwhileLeavesTheRecountedCandidate) {
+TEST_F(RebuildPromoteTest,
+       ADocumentForgottenMeanwhileLeavesTheRecountedCandidate) {
   WriteTree("lab", 6);
   Fresh("a.db", "lab", {});
-  Ok({"rebuild", "--db", "a.db", "--bigrams", "on", "--numbers", "fold", "--candidate"});
+  Ok({"rebuild", "--db", "a.db", "--bigrams", "on", "--numbers", "fold",
+      "--candidate"});
   Ok({"forget", "--db", "a.db", "lab/billing/i2.txt"});
   RunResult r = Chute({"promote", "--db", "a.db", "--force"});
   ASSERT_EQ(r.exit_code, 0) << r.err << r.out;
@@ -189,12 +213,14 @@ class GateTest : public RebuildPromoteTest {
   void SetUp() override {
     WriteTree("lab", 16);
     for (int i = 0; i < 10; ++i) {
-      dir_.Write("wrong/billing/x" + std::to_string(i) + ".txt", Letter(kBerthWords, 300 + i));
+      dir_.Write("wrong/billing/x" + std::to_string(i) + ".txt",
+                 Letter(kBerthWords, 300 + i));
     }
     Fresh("a.db", "lab", {});
     Ok({"learn", "--db", "a.db", "--tree", "wrong"});
   }
-  void WriteCorrections(const std::string& name, const std::vector<std::string>& lines) {
+  void WriteCorrections(const std::string& name,
+                        const std::vector<std::string>& lines) {
     std::string csv = "path,queue\n";
     for (const std::string& l : lines) csv += l + "\n";
     dir_.Write(name, csv);
@@ -203,7 +229,8 @@ class GateTest : public RebuildPromoteTest {
 
 TEST_F(GateTest, PromotesACandidateOfGoodCorrections) {
   std::vector<std::string> lines;
-  for (int i = 0; i < 10; ++i) lines.push_back("wrong/billing/x" + std::to_string(i) + ".txt,berths");
+  for (int i = 0; i < 10; ++i)
+    lines.push_back("wrong/billing/x" + std::to_string(i) + ".txt,berths");
   WriteCorrections("fixes.csv", lines);
   const std::string before = Queues("a.db");
   RunResult r = Chute({"correct", "--db", "a.db", "fixes.csv", "--candidate"});
@@ -219,7 +246,8 @@ TEST_F(GateTest, PromotesACandidateOfGoodCorrections) {
             gate["current"]["macro_f1"].get<double>() - 0.01);
   // The model now has the corrections, as a store that learned them so.
   for (int i = 0; i < 10; ++i) {
-    dir_.Write("right/berths/x" + std::to_string(i) + ".txt", Letter(kBerthWords, 300 + i));
+    dir_.Write("right/berths/x" + std::to_string(i) + ".txt",
+               Letter(kBerthWords, 300 + i));
   }
   Fresh("b.db", "lab", {});
   Ok({"learn", "--db", "b.db", "--tree", "right"});
@@ -232,8 +260,10 @@ TEST_F(GateTest, RefusesACandidateThatLowersARecallAndForceOverrides) {
   // five corrections put five mislearned letters right: those five are held
   // out, and the candidate, which lost most berth letters, misses them.
   std::vector<std::string> lines;
-  for (int i = 0; i < 12; ++i) lines.push_back("lab/berths/b" + std::to_string(i) + ".txt,billing");
-  for (int i = 0; i < 5; ++i) lines.push_back("wrong/billing/x" + std::to_string(i) + ".txt,berths");
+  for (int i = 0; i < 12; ++i)
+    lines.push_back("lab/berths/b" + std::to_string(i) + ".txt,billing");
+  for (int i = 0; i < 5; ++i)
+    lines.push_back("wrong/billing/x" + std::to_string(i) + ".txt,berths");
   WriteCorrections("fixes.csv", lines);
   Ok({"correct", "--db", "a.db", "fixes.csv", "--candidate"});
   const std::vector<std::string> before = Routes("a.db");
@@ -246,7 +276,8 @@ TEST_F(GateTest, RefusesACandidateThatLowersARecallAndForceOverrides) {
   r = Chute({"promote", "--db", "a.db", "--show"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
   EXPECT_NE(r.out.find("\"decision\":\"refused\""), std::string::npos) << r.out;
-  r = Chute({"promote", "--db", "a.db", "--hold-out", "5", "--force", "--format", "jsonl"});
+  r = Chute({"promote", "--db", "a.db", "--hold-out", "5", "--force",
+             "--format", "jsonl"});
   ASSERT_EQ(r.exit_code, 0) << r.err << r.out;
   json gate = json::parse(r.out);
   EXPECT_EQ(gate["decision"], "forced");

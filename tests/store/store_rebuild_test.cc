@@ -32,8 +32,9 @@ struct Letter {
 
 // Twelve letters over three queues, words from one small pool.
 std::vector<Letter> Letters() {
-  const char* words[] = {"berth", "pier",  "invoice", "dues",  "marina", "pontoon", "vessel",
-                         "refund", "tide", "yacht",   "fee",   "quay",   "2026",    "of"};
+  const char* words[] = {"berth",   "pier",   "invoice", "dues", "marina",
+                         "pontoon", "vessel", "refund",  "tide", "yacht",
+                         "fee",     "quay",   "2026",    "of"};
   const char* queues[] = {"berths", "billing", "marina"};
   std::vector<Letter> out;
   uint32_t x = 7;
@@ -91,7 +92,8 @@ RecountFunction Recounter(Tokenizer* tokenizer) {
 }
 
 // Recounts every ledger document with the function, in batches of `batch`.
-void RecountAll(Store* reader, Store* writer, const RecountFunction& recount, size_t batch) {
+void RecountAll(Store* reader, Store* writer, const RecountFunction& recount,
+                size_t batch) {
   std::vector<RecountedDocument> docs;
   ASSERT_TRUE(reader
                   ->ReadLedgerTexts([&](const LedgerText& t) {
@@ -130,7 +132,8 @@ void ExpectSameModel(Store* a, Store* b) {
 void ExpectConsistent(const std::string& path) {
   CheckReport report;
   ASSERT_TRUE(CheckStore(path, &report).ok());
-  for (const CheckLine& l : report.lines) EXPECT_TRUE(l.ok) << l.check << ": " << l.detail;
+  for (const CheckLine& l : report.lines)
+    EXPECT_TRUE(l.ok) << l.check << ": " << l.detail;
 }
 
 TEST(RecountSwapTest, CatchesUpWhatWasLearnedCorrectedAndForgottenMeanwhile) {
@@ -143,15 +146,19 @@ TEST(RecountSwapTest, CatchesUpWhatWasLearnedCorrectedAndForgottenMeanwhile) {
 
   int64_t base = 0;
   bool replaced = true;
-  ASSERT_TRUE(store->BeginRecount(Settings(true), kChange, &base, &replaced).ok());
+  ASSERT_TRUE(
+      store->BeginRecount(Settings(true), kChange, &base, &replaced).ok());
   EXPECT_FALSE(replaced);
   ASSERT_TRUE(Store::Open(path, &writer).ok());
   Tokenizer bigrams(Settings(true).tokenizer);
   // Corrected and forgotten between the recount's batches and the swap.
   RecountAll(store.get(), writer.get(), Recounter(&bigrams), 4);
-  Learn(writer.get(), {letters.begin() + 9, letters.end()}, false);  // three new
+  Learn(writer.get(), {letters.begin() + 9, letters.end()},
+        false);  // three new
   CorrectResult corrected;
-  ASSERT_TRUE(writer->Correct({{letters[1].digest, "marina"}}, LearnBatch(), kChange, &corrected)
+  ASSERT_TRUE(writer
+                  ->Correct({{letters[1].digest, "marina"}}, LearnBatch(),
+                            kChange, &corrected)
                   .ok());
   letters[1].queue = "marina";
   ForgetResult forgotten;
@@ -160,14 +167,18 @@ TEST(RecountSwapTest, CatchesUpWhatWasLearnedCorrectedAndForgottenMeanwhile) {
   letters.erase(letters.begin() + 4);
 
   SwapResult swap;
-  ASSERT_TRUE(store->SwapRecount("rebuild", kChange, "{}", Recounter(&bigrams), &swap).ok());
+  ASSERT_TRUE(
+      store->SwapRecount("rebuild", kChange, "{}", Recounter(&bigrams), &swap)
+          .ok());
   EXPECT_EQ(swap.caught_up, 3);
   EXPECT_EQ(swap.resynced, 1);
   EXPECT_EQ(swap.made.command, "rebuild");
   EXPECT_TRUE(store->settings().tokenizer.bigrams);
 
   std::unique_ptr<Store> fresh;
-  ASSERT_TRUE(Store::Create(dir.path() + "/b.db", Settings(true), &fresh, kChange).ok());
+  ASSERT_TRUE(
+      Store::Create(dir.path() + "/b.db", Settings(true), &fresh, kChange)
+          .ok());
   Learn(fresh.get(), letters, true);
   ExpectSameModel(store.get(), fresh.get());
   ExpectConsistent(path);
@@ -185,7 +196,8 @@ TEST(RecountSwapTest, AReaderInATransactionKeepsTheOldModel) {
   Learn(store.get(), letters, false);
   int64_t base = 0;
   bool replaced = false;
-  ASSERT_TRUE(store->BeginRecount(Settings(true), kChange, &base, &replaced).ok());
+  ASSERT_TRUE(
+      store->BeginRecount(Settings(true), kChange, &base, &replaced).ok());
   Tokenizer bigrams(Settings(true).tokenizer);
   RecountAll(store.get(), store.get(), Recounter(&bigrams), 100);
   ASSERT_TRUE(Store::Open(path, &reader).ok());
@@ -194,30 +206,33 @@ TEST(RecountSwapTest, AReaderInATransactionKeepsTheOldModel) {
   int64_t documents = 0;
   // The swap commits while the reader is half-way through its snapshot.
   ASSERT_TRUE(reader
-                  ->ReadCountsAndLedger(&before,
-                                        [&](LedgerDocument& d) {
-                                          if (!swapped) {
-                                            SwapResult swap;
-                                            EXPECT_TRUE(store
-                                                            ->SwapRecount("rebuild", kChange, "{}",
-                                                                          Recounter(&bigrams),
-                                                                          &swap)
-                                                            .ok());
-                                            swapped = true;
-                                          }
-                                          ++documents;
-                                          for (const auto& [term, n] : d.terms) {
-                                            EXPECT_EQ(term.find(' '), std::string::npos) << term;
-                                          }
-                                        })
+                  ->ReadCountsAndLedger(
+                      &before,
+                      [&](LedgerDocument& d) {
+                        if (!swapped) {
+                          SwapResult swap;
+                          EXPECT_TRUE(
+                              store
+                                  ->SwapRecount("rebuild", kChange, "{}",
+                                                Recounter(&bigrams), &swap)
+                                  .ok());
+                          swapped = true;
+                        }
+                        ++documents;
+                        for (const auto& [term, n] : d.terms) {
+                          EXPECT_EQ(term.find(' '), std::string::npos) << term;
+                        }
+                      })
                   .ok());
   EXPECT_TRUE(swapped);
   EXPECT_EQ(documents, 12);
-  for (const std::string& t : before.terms) EXPECT_EQ(t.find(' '), std::string::npos) << t;
+  for (const std::string& t : before.terms)
+    EXPECT_EQ(t.find(' '), std::string::npos) << t;
   ModelCounts after;
   ASSERT_TRUE(reader->LoadModelCounts(&after).ok());
-  EXPECT_TRUE(std::any_of(after.terms.begin(), after.terms.end(),
-                          [](const std::string& t) { return t.find(' ') != std::string::npos; }));
+  EXPECT_TRUE(std::any_of(
+      after.terms.begin(), after.terms.end(),
+      [](const std::string& t) { return t.find(' ') != std::string::npos; }));
 }
 
 TEST(RecountSwapTest, ANewRecountReplacesTheCandidate) {
@@ -237,7 +252,8 @@ TEST(RecountSwapTest, ANewRecountReplacesTheCandidate) {
   EXPECT_EQ(candidate->settings.model.alpha, 0.5);
   EXPECT_EQ(candidate->members.size(), 12u);
   int64_t base = 0;
-  ASSERT_TRUE(store->BeginRecount(Settings(true), kChange, &base, &replaced).ok());
+  ASSERT_TRUE(
+      store->BeginRecount(Settings(true), kChange, &base, &replaced).ok());
   EXPECT_TRUE(replaced);
   ASSERT_TRUE(store->LoadCandidate(&candidate).ok());
   EXPECT_FALSE(candidate.has_value());
