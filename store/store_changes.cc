@@ -10,6 +10,7 @@
 #include <utility>
 #include <vector>
 
+#include "store/count_tables.h"
 #include "store/store.h"
 #include "store/term_counts_codec.h"
 
@@ -69,50 +70,27 @@ Status ReadStoredById(sqlite3* db, const std::string& path, int64_t id,
       "ledger id " + std::to_string(id), out, found);
 }
 
-// Adds or subtracts one document's term counts in one queue, with prepared
-// statements shared across documents. Counts never hold a zero row: a
-// subtraction that reaches zero deletes the row.
+// Adds or subtracts one document's term counts in one queue (CountTables
+// over terms and counts), with the queue's totals.
 class CountEditor {
  public:
   CountEditor(sqlite3* db, std::string path)
-      : db_(db),
+      : tables_(db, path, "terms", "counts"),
         path_(std::move(path)),
-        find_term_(db, "SELECT id FROM terms WHERE text = ?"),
-        add_term_(db, "INSERT INTO terms(text) VALUES(?)"),
-        upsert_(
-            db,
-            "INSERT INTO counts(term_id, queue_id, n) VALUES(?, ?, ?) "
-            "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n"),
-        lower_(db,
-               "UPDATE counts SET n = n - ? WHERE term_id = ? AND queue_id = ? "
-               "AND n > ?"),
-        remove_(
-            db,
-            "DELETE FROM counts WHERE term_id = ? AND queue_id = ? AND n = ?"),
-        drop_term_(db,
-                   "DELETE FROM terms WHERE id = ? AND NOT EXISTS "
-                   "(SELECT 1 FROM counts WHERE term_id = ?)"),
         queue_totals_(
             db,
             "UPDATE queues SET documents = documents + ?, tokens = tokens + ? "
             "WHERE id = ?") {}
 
   Status status() const {
-    for (const sql::Statement* st : {&find_term_, &add_term_, &upsert_, &lower_,
-                                     &remove_, &drop_term_, &queue_totals_}) {
-      if (!st->ok()) return Status::IoError(path_ + ": " + st->error());
-    }
-    return Status::Ok();
+    if (!queue_totals_.ok()) return Status::IoError(path_ + ": " + queue_totals_.error());
+    return tables_.status();
   }
 
   // N(q, w) += n for every term, N(q) += tokens, documents(q) += 1.
   Status Add(int64_t queue_id, const StoredDocument& doc) {
     for (const auto& [term, n] : doc.terms) {
-      int64_t id = 0;
-      Status s = TermId(term, /*create=*/true, &id);
-      if (!s.ok()) return s;
-      s = upsert_.Bind(1, id).Bind(2, queue_id).Bind(3, n).Run();
-      if (!s.ok()) return s;
+      if (Status s = tables_.Add(queue_id, term, n); !s.ok()) return s;
     }
     return queue_totals_.Bind(1, int64_t{1})
         .Bind(2, doc.entry.tokens)
@@ -126,20 +104,13 @@ class CountEditor {
   Status Subtract(int64_t queue_id, const StoredDocument& doc, bool drop_terms,
                   int64_t* dropped) {
     for (const auto& [term, n] : doc.terms) {
-      int64_t id = 0;
-      Status s = TermId(term, /*create=*/false, &id);
+      bool too_small = false;
+      Status s = tables_.Subtract(queue_id, term, n, drop_terms, dropped, &too_small);
       if (!s.ok()) return s;
-      s = lower_.Bind(1, n).Bind(2, id).Bind(3, queue_id).Bind(4, n).Run();
-      if (!s.ok()) return s;
-      if (sqlite3_changes(db_) == 0) {
-        s = remove_.Bind(1, id).Bind(2, queue_id).Bind(3, n).Run();
-        if (!s.ok()) return s;
-        if (sqlite3_changes(db_) == 0) return Damaged(doc);
-        if (drop_terms) {
-          s = drop_term_.Bind(1, id).Bind(2, id).Run();
-          if (!s.ok()) return s;
-          *dropped += sqlite3_changes(db_);
-        }
+      if (too_small) {
+        return Status::Corruption(
+            path_ + ": the counts of queue '" + doc.entry.queue +
+            "' are smaller than those of its document " + doc.entry.digest);
       }
     }
     return queue_totals_.Bind(1, int64_t{-1})
@@ -149,32 +120,9 @@ class CountEditor {
   }
 
  private:
-  Status TermId(const std::string& term, bool create, int64_t* id) {
-    find_term_.Bind(1, term);
-    int rc = find_term_.Step();
-    if (rc == SQLITE_ROW) *id = find_term_.ColumnInt(0);
-    find_term_.Reset();
-    if (rc == SQLITE_ROW) return Status::Ok();
-    if (rc != SQLITE_DONE) return sql::ErrorStatus(db_, path_);
-    if (!create)
-      return Status::Corruption(
-          path_ + ": a learned term is missing from the vocabulary");
-    Status s = add_term_.Bind(1, term).Run();
-    if (!s.ok()) return s;
-    *id = sqlite3_last_insert_rowid(db_);
-    return Status::Ok();
-  }
-
-  Status Damaged(const StoredDocument& doc) const {
-    return Status::Corruption(
-        path_ + ": the counts of queue '" + doc.entry.queue +
-        "' are smaller than those of its document " + doc.entry.digest);
-  }
-
-  sqlite3* db_;
+  CountTables tables_;
   std::string path_;
-  sql::Statement find_term_, add_term_, upsert_, lower_, remove_, drop_term_,
-      queue_totals_;
+  sql::Statement queue_totals_;
 };
 
 }  // namespace

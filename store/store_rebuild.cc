@@ -8,6 +8,7 @@
 #include <utility>
 #include <vector>
 
+#include "store/count_tables.h"
 #include "store/store.h"
 #include "store/term_counts_codec.h"
 #include "store/text_codec.h"
@@ -40,86 +41,61 @@ DELETE FROM rebuild_docs;
 DELETE FROM rebuild_queues;
 )sql";
 
-// Adds and subtracts recounted documents in the side tables, with the
-// statements prepared once. Counts never hold a zero row; a term whose
-// counts are all gone leaves the recounted vocabulary.
+// Adds and subtracts recounted documents in the side tables (CountTables
+// over rebuild_terms and rebuild_counts), with the queues' totals in
+// rebuild_queues.
 class SideCounts {
  public:
   SideCounts(sqlite3* db, std::string path)
-      : db_(db),
+      : tables_(db, path, "rebuild_terms", "rebuild_counts"),
         path_(std::move(path)),
-        find_term_(db, "SELECT id FROM rebuild_terms WHERE text = ?"),
-        add_term_(db, "INSERT INTO rebuild_terms(text) VALUES(?)"),
-        upsert_(
-            db,
-            "INSERT INTO rebuild_counts(term_id, queue_id, n) VALUES(?, ?, ?) "
-            "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n"),
-        lower_(db,
-               "UPDATE rebuild_counts SET n = n - ? WHERE term_id = ? AND "
-               "queue_id = ? AND n > ?"),
-        remove_(db,
-                "DELETE FROM rebuild_counts WHERE term_id = ? AND queue_id = ? "
-                "AND n = ?"),
-        drop_term_(db,
-                   "DELETE FROM rebuild_terms WHERE id = ? AND NOT EXISTS "
-                   "(SELECT 1 FROM rebuild_counts WHERE term_id = ?)"),
         totals_(db,
                 "INSERT INTO rebuild_queues(queue_id, documents, tokens) "
                 "VALUES(?, ?, ?) "
                 "ON CONFLICT(queue_id) DO UPDATE SET documents = documents + "
-                "excluded.documents, "
-                "tokens = tokens + excluded.tokens"),
+                "excluded.documents, tokens = tokens + excluded.tokens"),
         lower_totals_(db,
                       "UPDATE rebuild_queues SET documents = documents + ?, "
                       "tokens = tokens + ? "
                       "WHERE queue_id = ?") {}
 
   Status status() const {
-    for (const sql::Statement* st :
-         {&find_term_, &add_term_, &upsert_, &lower_, &remove_, &drop_term_,
-          &totals_, &lower_totals_}) {
+    for (const sql::Statement* st : {&totals_, &lower_totals_}) {
       if (!st->ok()) return Status::IoError(path_ + ": " + st->error());
     }
-    return Status::Ok();
+    return tables_.status();
   }
 
   // N(q, w) += n.
   Status AddCount(const std::string& term, int64_t queue, int64_t n) {
-    int64_t id = 0;
-    Status s = TermId(term, /*create=*/true, &id);
-    if (!s.ok()) return s;
-    return upsert_.Bind(1, id).Bind(2, queue).Bind(3, n).Run();
+    return tables_.Add(queue, term, n);
   }
 
   // documents(q) += documents, N(q) += tokens. A subtraction updates the
   // row in place: the upsert's new row would fail its CHECK first.
   Status AddTotals(int64_t queue, int64_t documents, int64_t tokens) {
-    if (documents < 0)
+    if (documents < 0) {
       return lower_totals_.Bind(1, documents)
           .Bind(2, tokens)
           .Bind(3, queue)
           .Run();
+    }
     return totals_.Bind(1, queue).Bind(2, documents).Bind(3, tokens).Run();
   }
 
   // The reverse of adding one document's counts and totals.
   Status Subtract(int64_t queue, int64_t tokens,
                   const std::vector<TermCount>& terms) {
+    int64_t dropped = 0;
     for (const auto& [term, n] : terms) {
-      int64_t id = 0;
-      Status s = TermId(term, /*create=*/false, &id);
+      bool too_small = false;
+      Status s = tables_.Subtract(queue, term, n, /*drop_term=*/true, &dropped,
+                                  &too_small);
       if (!s.ok()) return s;
-      if (s = lower_.Bind(1, n).Bind(2, id).Bind(3, queue).Bind(4, n).Run();
-          !s.ok())
-        return s;
-      if (sqlite3_changes(db_) > 0) continue;
-      if (s = remove_.Bind(1, id).Bind(2, queue).Bind(3, n).Run(); !s.ok())
-        return s;
-      if (sqlite3_changes(db_) == 0) {
+      if (too_small) {
         return Status::Corruption(
             path_ + ": the recounted counts are smaller than a document's");
       }
-      if (s = drop_term_.Bind(1, id).Bind(2, id).Run(); !s.ok()) return s;
     }
     return AddTotals(queue, -1, -tokens);
   }
@@ -133,24 +109,9 @@ class SideCounts {
   }
 
  private:
-  Status TermId(const std::string& term, bool create, int64_t* id) {
-    find_term_.Bind(1, term);
-    int rc = find_term_.Step();
-    if (rc == SQLITE_ROW) *id = find_term_.ColumnInt(0);
-    find_term_.Reset();
-    if (rc == SQLITE_ROW) return Status::Ok();
-    if (rc != SQLITE_DONE) return sql::ErrorStatus(db_, path_);
-    if (!create)
-      return Status::Corruption(path_ + ": a recounted term is missing");
-    if (Status s = add_term_.Bind(1, term).Run(); !s.ok()) return s;
-    *id = sqlite3_last_insert_rowid(db_);
-    return Status::Ok();
-  }
-
-  sqlite3* db_;
+  CountTables tables_;
   std::string path_;
-  sql::Statement find_term_, add_term_, upsert_, lower_, remove_, drop_term_,
-      totals_, lower_totals_;
+  sql::Statement totals_, lower_totals_;
 };
 
 // The queue a ledger row is counted in now, or 0 (out of the model, or
