@@ -37,6 +37,8 @@ CommandRun SetupCorrect(CLI::App* command);
 CommandRun SetupRebuild(CLI::App* command);
 CommandRun SetupPromote(CLI::App* command);
 CommandRun SetupPurge(CLI::App* command);
+CommandRun SetupVersions(CLI::App* command);
+CommandRun SetupRollback(CLI::App* command);
 
 }  // namespace chute
 

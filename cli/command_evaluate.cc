@@ -201,8 +201,8 @@ int64_t FoldsFromFile(const EvaluateOptions& o, const std::vector<LedgerItem>& i
     if (given[i] < 0) {
       if (missing++ == 0) {
         Report(kCommand, o.folds_csv + ": gives no fold to the learned document " +
-                             items[i].digest.substr(0, kDigestPrefix) + " (" + items[i].source +
-                             ")");
+                             items[i].digest.substr(0, kDigestPrefix) +
+                             (items[i].source.empty() ? "" : " (" + items[i].source + ")"));
       }
     } else {
       (*docs)[i].fold = static_cast<uint32_t>(given[i]);
@@ -276,8 +276,10 @@ int CrossValidateStore(const EvaluateOptions& o, Store* store, EvaluationReport*
                                  [](int64_t n) { return n != 0; });
   }
   for (size_t i = 0; i < docs.size(); ++i) {
-    r->documents.push_back(o.with_paths ? items[i].source
-                                        : items[i].digest.substr(0, kDigestPrefix));
+    // A purged entry has no path left; its digest names it instead.
+    r->documents.push_back(o.with_paths && !items[i].source.empty()
+                               ? items[i].source
+                               : items[i].digest.substr(0, kDigestPrefix));
     r->fold_of.push_back(static_cast<int64_t>(docs[i].fold) + 1);
   }
   // Warnings: small queues, queues a fold's model could not route to.

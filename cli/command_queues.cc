@@ -24,7 +24,57 @@ struct QueuesOptions {
   std::string clear_prior;
   bool settings = false;
   std::string by;
+  std::vector<std::string> rename;  // from, to
+  std::string merge, into, retire, add;
 };
+
+// --rename, --merge/--into, --retire, --add: one change, reported in one
+// line on stdout (table) or stderr; returns an exit code, or -1 when no
+// change was asked for.
+int ApplyQueueChange(const QueuesOptions& o, Store* store) {
+  const ChangeInfo change{NowRfc3339(), o.by};
+  const int asked = !o.rename.empty() + !o.merge.empty() + !o.retire.empty() + !o.add.empty();
+  if (asked == 0) {
+    if (!o.into.empty()) {
+      Report("queues", "--into names the queue that --merge puts another into");
+      return kExitUsage;
+    }
+    return -1;
+  }
+  if (asked > 1) {
+    Report("queues", "one queue change at a time: --rename, --merge, --retire or --add");
+    return kExitUsage;
+  }
+  Status s;
+  std::string done;
+  if (!o.rename.empty()) {
+    s = store->RenameQueue(o.rename[0], o.rename[1], change);
+    done = "renamed queue '" + o.rename[0] + "' to '" + o.rename[1] + "'";
+  } else if (!o.merge.empty()) {
+    if (o.into.empty()) {
+      Report("queues", "--merge " + o.merge + " needs --into QUEUE");
+      return kExitUsage;
+    }
+    int64_t moved = 0;
+    s = store->MergeQueue(o.merge, o.into, change, &moved);
+    done = "merged queue '" + o.merge + "' into '" + o.into + "': " + std::to_string(moved) +
+           " documents and their counts added; '" + o.merge + "' is retired";
+  } else if (!o.retire.empty()) {
+    int64_t removed = 0;
+    s = store->RetireQueue(o.retire, change, &removed);
+    done = "retired queue '" + o.retire + "': " + std::to_string(removed) +
+           " documents out of the model, kept in the ledger";
+  } else {
+    s = store->AddQueue(o.add, change);
+    done = "added queue '" + o.add + "'; it is routed to once it has learned documents";
+  }
+  if (!s.ok()) {
+    Report("queues", s.message() + "; nothing was changed");
+    return kExitFailed;
+  }
+  if (o.format == OutputFormat::kTable) Print(done + " (by " + o.by + ")\n\n");
+  return kExitDone;
+}
 
 std::vector<std::pair<std::string, std::string>> SettingsRows(const StoreSettings& s,
                                                               int64_t vocabulary) {
@@ -68,6 +118,7 @@ int PrintSettings(const StoreSettings& s, int64_t vocabulary, OutputFormat forma
 int RunQueues(const QueuesOptions& o) {
   std::unique_ptr<Store> store;
   if (!OpenStoreOrReport("queues", o.db, &store)) return kExitFailed;
+  if (int code = ApplyQueueChange(o, store.get()); code > 0) return code;
   if (!o.set_prior.empty()) {
     const std::string& queue = o.set_prior[0];
     double p = 0;
@@ -127,7 +178,8 @@ int RunQueues(const QueuesOptions& o) {
       w.Key("documents").Int(q.documents).Key("tokens").Int(q.tokens);
       w.Key("distinct_terms").Int(q.distinct_terms).Key("prior");
       p ? w.Number(*p) : w.Null();
-      w.Key("prior_source").String(q.set_prior ? "set" : mode);
+      w.Key("prior_source").String(q.retired ? "retired" : q.set_prior ? "set" : mode);
+      w.Key("retired").Bool(q.retired);
       Print(w.EndObject().Take() + "\n");
     }
     return kExitDone;
@@ -138,7 +190,7 @@ int RunQueues(const QueuesOptions& o) {
       auto p = prior_of(q.name);
       Print(CsvRecordLine({q.name, std::to_string(q.documents), std::to_string(q.tokens),
                            std::to_string(q.distinct_terms), p ? FormatShortest(*p) : "",
-                           q.set_prior ? "set" : mode}));
+                           q.retired ? "retired" : q.set_prior ? "set" : mode}));
     }
     return kExitDone;
   }
@@ -159,7 +211,7 @@ int RunQueues(const QueuesOptions& o) {
     auto p = prior_of(q.name);
     t.AddRow({q.name, std::to_string(q.documents), std::to_string(q.tokens),
               std::to_string(q.distinct_terms), p ? FormatFixed(*p, 4) : "-",
-              q.set_prior ? "set by hand" : mode});
+              q.retired ? "retired" : q.set_prior ? "set by hand" : mode});
   }
   Print(t.Render());
   return kExitDone;
@@ -178,11 +230,28 @@ CommandRun SetupQueues(CLI::App* cmd) {
   cmd->add_option("--clear-prior", o->clear_prior, "QUEUE: the queue's prior is learned or uniform again");
   cmd->add_flag("--settings", o->settings, "print the store's settings instead of the queues");
   AddByOption(cmd, &o->by);
+  cmd->add_option("--rename", o->rename, "A B: queue A is called B from now on (same documents)")
+      ->expected(2)
+      ->type_name("A B");
+  cmd->add_option("--merge", o->merge, "A: add queue A's documents and counts to the --into queue")
+      ->type_name("A");
+  cmd->add_option("--into", o->into, "B: the queue --merge adds to")->type_name("B");
+  cmd->add_option("--retire", o->retire,
+                  "A: queue A routes nothing; its documents leave the model, kept in the ledger")
+      ->type_name("A");
+  cmd->add_option("--add", o->add, "Q: a new queue, routed to once it has learned documents")
+      ->type_name("Q");
   cmd->footer(R"(Examples:
   chute queues
   chute queues --format jsonl
   chute queues --set-prior environment 0.05
-  chute queues --settings)");
+  chute queues --settings
+  chute queues --rename harbour-dues billing
+  chute queues --merge pilotage --into berth-bookings --by ops-lead
+  chute queues --retire old-forms
+  chute queues --add hazardous-cargo
+
+Every change is a version (see 'chute versions'); 'chute rollback' undoes it.)");
   return [o] { return RunQueues(*o); };
 }
 

@@ -26,9 +26,11 @@ struct RouteOptions {
   int top = 3;
   int64_t max_bytes = kDefaultMaxBytes;
   size_t threads = 1;
+  int64_t at_version = 0;
 };
 
-std::string JsonLine(const std::string& file, const Model& model, const Decision& d, int top) {
+std::string JsonLine(const std::string& file, const Model& model, const VersionInfo& version,
+                     const Decision& d, int top) {
   JsonWriter w;
   const QueuePosterior& best = d.ranked.front();
   w.BeginObject();
@@ -45,7 +47,10 @@ std::string JsonLine(const std::string& file, const Model& model, const Decision
         .Key("log_posterior").Number(p.log_posterior)
         .EndObject();
   }
-  w.EndArray().EndObject();
+  w.EndArray();
+  w.Key("model_version").Int(version.version);
+  w.Key("fingerprint").String(version.fingerprint);
+  w.EndObject();
   return w.Take() + "\n";
 }
 
@@ -56,9 +61,11 @@ int RunRoute(const RouteOptions& o) {
   }
   std::unique_ptr<Store> store;
   if (!OpenStoreOrReport("route", o.db, &store)) return kExitFailed;
-  std::optional<Model> loaded;
-  if (!LoadModelOrReport("route", store.get(), &loaded)) return kExitFailed;
-  const Model& model = *loaded;
+  LoadedModel loaded;
+  if (!LoadModelOrReport("route", store.get(), o.at_version, &loaded)) return kExitFailed;
+  const Model& model = *loaded.model;
+  const VersionInfo& version = loaded.version;
+  const std::string model_version = std::to_string(version.version);
 
   std::vector<InputFile> files;
   std::vector<WalkProblem> problems;
@@ -73,7 +80,7 @@ int RunRoute(const RouteOptions& o) {
   // model is shared read-only); this thread prints in input order.
   std::vector<std::unique_ptr<Tokenizer>> tokenizers;
   for (size_t w = 0; w < o.threads; ++w) {
-    tokenizers.push_back(std::make_unique<Tokenizer>(store->settings().tokenizer));
+    tokenizers.push_back(std::make_unique<Tokenizer>(loaded.settings.tokenizer));
   }
   struct Slot {
     Status status;
@@ -91,7 +98,8 @@ int RunRoute(const RouteOptions& o) {
                      {"its posterior", TableWriter::Align::kRight},
                      {"note"}});
   if (o.format == OutputFormat::kCsv) {
-    Print(CsvRecordLine({"file", "queue", "confidence", "runner_up", "runner_up_posterior"}));
+    Print(CsvRecordLine({"file", "queue", "confidence", "runner_up", "runner_up_posterior",
+                         "model_version", "fingerprint"}));
   }
   Progress progress("route", files.size());
   for (size_t start = 0; start < files.size(); start += kParallelWindow) {
@@ -126,12 +134,13 @@ int RunRoute(const RouteOptions& o) {
       const std::string& queue = model.queues()[best.queue].name;
       switch (o.format) {
         case OutputFormat::kJsonl:
-          out += JsonLine(f.path, model, d, o.top);
+          out += JsonLine(f.path, model, version, d, o.top);
           break;
         case OutputFormat::kCsv:
           out += CsvRecordLine({f.path, queue, FormatShortest(best.posterior),
                                 second ? model.queues()[second->queue].name : "",
-                                second ? FormatShortest(second->posterior) : ""});
+                                second ? FormatShortest(second->posterior) : "",
+                                model_version, version.fingerprint});
           break;
         case OutputFormat::kTable:
           table.AddRow({f.path, queue, FormatFixed(best.posterior, 3),
@@ -143,7 +152,11 @@ int RunRoute(const RouteOptions& o) {
     }
     Print(out);
   }
-  if (o.format == OutputFormat::kTable) Print(table.Render());
+  if (o.format == OutputFormat::kTable) {
+    Print(table.Render());
+    Print("model version " + model_version + " (fingerprint " + version.fingerprint.substr(0, 12) +
+          ")\n");
+  }
   return BatchExit(routed, refused);
 }
 
@@ -158,6 +171,10 @@ CommandRun SetupRoute(CLI::App* cmd) {
       ->check(CLI::PositiveNumber);
   AddMaxBytesOption(cmd, &o->max_bytes);
   AddThreadsOption(cmd, &o->threads);
+  cmd->add_option("--at-version", o->at_version,
+                  "V: route with the model of an earlier version (read-only; see 'chute versions')")
+      ->check(CLI::PositiveNumber)
+      ->type_name("V");
   cmd->footer(R"(Confidence is the posterior probability of the chosen queue. Naive Bayes
 is often over-confident: have a person review documents below a threshold
 you have measured (see README, "Cautions").
@@ -165,6 +182,7 @@ you have measured (see README, "Cautions").
 Examples:
   chute route corpora/port-authority/inbox/
   chute route letter.txt --format jsonl --top 3
+  chute route letter.txt --at-version 41
   cat scan.txt | chute route - --format csv)");
   return [o] { return RunRoute(*o); };
 }

@@ -1,5 +1,8 @@
 #include "cli/common_options.h"
 
+#include "cli/parallel.h"
+#include "cli/recount.h"
+
 #include <CLI/CLI.hpp>
 
 #include <pwd.h>
@@ -74,14 +77,38 @@ bool OpenStoreOrReport(std::string_view command, const std::string& db,
 }
 
 bool LoadModelOrReport(std::string_view command, Store* store, std::optional<Model>* model) {
+  LoadedModel loaded;
+  if (!LoadModelOrReport(command, store, 0, &loaded)) return false;
+  *model = std::move(loaded.model);
+  return true;
+}
+
+bool LoadModelOrReport(std::string_view command, Store* store, int64_t at_version,
+                       LoadedModel* out) {
   ModelCounts counts;
-  if (Status s = store->LoadModelCounts(&counts); !s.ok()) {
+  Status s;
+  if (at_version > 0) {
+    s = store->ModelAtVersion(at_version, &out->version, &out->settings, &counts);
+    if (s.code() == Status::Code::kInvalidArgument) {
+      // A rebuild changed the tokenizing since: the version's documents are
+      // counted again from their kept text (cli/recount.h).
+      s = RecountedModelAtVersion(store, at_version, DefaultThreads(), &out->version,
+                                  &out->settings, &counts);
+    }
+  } else {
+    s = store->LoadModelCounts(&counts, &out->version);
+    out->settings = store->settings();
+  }
+  if (!s.ok()) {
     Report(command, s.message());
     return false;
   }
-  *model = Model::Build(counts, store->settings().model);
-  if ((*model)->queue_count() == 0) {
-    Report(command, store->path() + ": has learned no documents yet; run 'chute learn' first");
+  out->model = Model::Build(counts, out->settings.model);
+  if (out->model->queue_count() == 0) {
+    Report(command, store->path() + (at_version > 0
+                                         ? ": version " + std::to_string(at_version) +
+                                               " had learned no documents"
+                                         : ": has learned no documents yet; run 'chute learn' first"));
     return false;
   }
   return true;

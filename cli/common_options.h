@@ -62,6 +62,19 @@ bool OpenStoreOrReport(std::string_view command, const std::string& db,
 // (the store cannot be read, or has learned no documents) and returns false.
 bool LoadModelOrReport(std::string_view command, Store* store, std::optional<Model>* model);
 
+// A model with the version it is and the settings it tokenizes with.
+struct LoadedModel {
+  std::optional<Model> model;
+  VersionInfo version;
+  StoreSettings settings;
+};
+
+// The current version's model (at_version 0), or version at_version's,
+// read from the history without changing anything; reports why not and
+// returns false.
+bool LoadModelOrReport(std::string_view command, Store* store, int64_t at_version,
+                       LoadedModel* out);
+
 // "chute <command>: <message>" on stderr, one line.
 void Report(std::string_view command, std::string_view message);
 

@@ -15,7 +15,8 @@ namespace chute {
 //   Nd, Nh, Nm   N days (of 86400 s), hours or minutes before now; N is 0
 //                to 12 decimal digits
 //   an RFC 3339 date-time (Klyne & Newman, "Date and Time on the Internet:
-//                Timestamps", RFC 3339, 2002, section 5.6), such as
+//                Timestamps", RFC 3339, 2002, section 5.6; sections
+//                recalled from memory), such as
 //                2025-01-31T00:00:00Z or 2025-01-31T09:30:00.5+01:00; "t"
 //                and "z" may be lowercase (section 5.6, NOTE); a second
 //                of 60 (a leap second) counts as the next second; a

@@ -14,8 +14,8 @@
 #include "store/store_file.h"
 #include "store/store_settings.h"
 #include "store/term_counts_codec.h"
-#include "store/version_codec.h"
 #include "store/text_codec.h"
+#include "store/version_codec.h"
 
 namespace chute {
 
@@ -218,10 +218,9 @@ class Checker {
     Findings blobs(report_, "ledger_blobs");
     Findings tokens(report_, "ledger_tokens");
     Findings texts(report_, "ledger_text");
-    sql::Statement st(
-        db_,
-        "SELECT digest, queue_id, tokens, term_counts, in_model, id, text FROM ledger "
-        "ORDER BY id");
+    sql::Statement st(db_,
+                      "SELECT digest, queue_id, tokens, term_counts, in_model, id, "
+                      "text FROM ledger ORDER BY id");
     if (!st.ok()) return Error();
     std::vector<TermCount> terms;
     TextCodec codec;

@@ -137,7 +137,8 @@ Status Store::ListQueues(std::vector<QueueInfo>* out) {
   out->clear();
   sql::Statement st(db_.get(),
                     "SELECT q.name, q.documents, q.tokens, q.set_prior, "
-                    "(SELECT COUNT(*) FROM counts c WHERE c.queue_id = q.id) "
+                    "(SELECT COUNT(*) FROM counts c WHERE c.queue_id = q.id), "
+                    "q.retired IS NOT NULL "
                     "FROM queues q ORDER BY q.name");
   if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
   int rc;
@@ -148,6 +149,7 @@ Status Store::ListQueues(std::vector<QueueInfo>* out) {
     q.tokens = st.ColumnInt(2);
     if (!st.ColumnIsNull(3)) q.set_prior = st.ColumnDouble(3);
     q.distinct_terms = st.ColumnInt(4);
+    q.retired = st.ColumnInt(5) != 0;
     out->push_back(std::move(q));
   }
   if (rc != SQLITE_DONE) return sql::ErrorStatus(db_.get(), path_);
@@ -278,7 +280,8 @@ Status Store::Learn(const LearnBatch& batch, const ChangeInfo& change,
     return Status::Busy(path_ + ": " + tx.status().message());
   }
   VersionDelta delta;
-  Status s = LearnInTransaction(batch, change.now, result, &delta);
+  const std::string now = change.now.empty() ? StoreClockNow() : change.now;
+  Status s = LearnInTransaction(batch, now, result, &delta);
   if (!s.ok()) return s;
   if (!delta.changes.empty()) {
     s = RecordVersionInTransaction("learn", change, delta);
@@ -292,12 +295,15 @@ Status Store::Learn(const LearnBatch& batch, const ChangeInfo& change,
 Status Store::QueueIdInTransaction(const std::string& name, const std::string& now,
                                    int64_t* id, bool* created) {
   *created = false;
-  sql::Statement find(db_.get(), "SELECT id FROM queues WHERE name = ?");
+  sql::Statement find(db_.get(), "SELECT id, retired IS NOT NULL FROM queues WHERE name = ?");
   if (!find.ok()) return Status::IoError(path_ + ": " + find.error());
   find.Bind(1, name);
   if (find.Step() == SQLITE_ROW) {
     *id = find.ColumnInt(0);
-    return Status::Ok();
+    if (find.ColumnInt(1) == 0) return Status::Ok();
+    // Documents learned under a retired queue's name bring it back.
+    sql::Statement revive(db_.get(), "UPDATE queues SET retired = NULL WHERE id = ?");
+    return revive.Bind(1, *id).Run();
   }
   Status v = ValidateQueueName(name);
   if (!v.ok()) return v;
@@ -473,7 +479,7 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
                        "ON CONFLICT(digest) DO UPDATE SET queue_id = excluded.queue_id, "
                        "source = excluded.source, learned_at = excluded.learned_at, "
                        "tokens = excluded.tokens, term_counts = excluded.term_counts, "
-                       "text = excluded.text, in_model = 1 RETURNING id");
+                       "text = COALESCE(excluded.text, text), in_model = 1 RETURNING id");
     if (!add.ok()) return Status::IoError(path_ + ": " + add.error());
     std::vector<std::pair<uint32_t, int64_t>> ranked;
     std::vector<std::pair<std::string_view, int64_t>> own;
@@ -536,7 +542,7 @@ Status Store::SetPrior(const std::string& queue, std::optional<double> prior,
                        const ChangeInfo& change) {
   sql::Transaction tx(db_.get());
   if (!tx.status().ok()) return tx.status();
-  sql::Statement find(db_.get(), "SELECT id FROM queues WHERE name = ?");
+  sql::Statement find(db_.get(), "SELECT id FROM queues WHERE name = ? AND retired IS NULL");
   find.Bind(1, queue);
   if (find.Step() != SQLITE_ROW) {
     return Status::NotFound("queue '" + queue + "' does not exist in " + path_);

@@ -36,6 +36,7 @@ struct QueueInfo {
   int64_t tokens = 0;          // N(q)
   int64_t distinct_terms = 0;  // terms with N(q, w) > 0
   std::optional<double> set_prior;
+  bool retired = false;  // routes nothing; its documents are out of the model
 };
 
 struct LedgerEntry {
@@ -77,6 +78,10 @@ struct LearnResult {
   int64_t corrected = 0;
   int64_t new_terms = 0;  // terms the vocabulary did not have
 };
+
+// The store's clock: now, RFC 3339 UTC, to the second. Used when a
+// ChangeInfo leaves `now` empty.
+std::string StoreClockNow();
 
 // Who makes a change, and when; recorded with the version the change makes.
 struct ChangeInfo {
@@ -456,6 +461,23 @@ class Store {
                        std::vector<std::vector<TermCount>>* out);
   // Queue id -> name, every queue.
   Status QueueNames(std::vector<std::pair<int64_t, std::string>>* out);
+
+  // Queue changes, each one transaction and a version ("queues").
+  // AddQueue: a new, empty queue (routed once it has documents), or a
+  // retired one brought back. Fails when an active queue has the name.
+  Status AddQueue(const std::string& name, const ChangeInfo& change);
+  // RenameQueue: the same queue (id, documents, history) under a new name.
+  // Fails when `to` is taken (by an active or retired queue) or invalid.
+  Status RenameQueue(const std::string& from, const std::string& to, const ChangeInfo& change);
+  // MergeQueue: from's documents and counts are added to into's (N(into, w)
+  // += N(from, w)); from is retired. *moved: documents moved.
+  Status MergeQueue(const std::string& from, const std::string& into, const ChangeInfo& change,
+                    int64_t* moved);
+  // RetireQueue: the queue's counts leave the model (terms no other queue
+  // has leave the vocabulary); its documents stay in the ledger, out of the
+  // model. It routes nothing; AddQueue or learning under its name brings
+  // it back, empty. *removed: documents taken out of the model.
+  Status RetireQueue(const std::string& name, const ChangeInfo& change, int64_t* removed);
 
   // Sets (or with nullopt clears) a queue's hand-set prior.
   // REQUIRES: 0 < prior < 1. Fails when the queue does not exist or the hand-

@@ -238,7 +238,7 @@ Status Store::Correct(const std::vector<CorrectMove>& moves,
     if (inserted) {
       bool created = false;
       Status s =
-          QueueIdInTransaction(m.queue, change.now, &it->second, &created);
+          QueueIdInTransaction(m.queue, change.now.empty() ? StoreClockNow() : change.now, &it->second, &created);
       if (!s.ok()) return s;
     }
     targets.emplace_back(m.digest, it->second);
@@ -248,7 +248,9 @@ Status Store::Correct(const std::vector<CorrectMove>& moves,
     return s;
   result->moved = delta.moved + delta.added;
   if (!batch.empty()) {
-    Status s = LearnInTransaction(batch, change.now, &result->learned, &delta);
+    Status s = LearnInTransaction(
+        batch, change.now.empty() ? StoreClockNow() : change.now,
+        &result->learned, &delta);
     if (!s.ok()) return s;
   }
   if (!delta.changes.empty()) {
@@ -394,8 +396,7 @@ Status Store::ApplyStateInTransaction(const VersionState& target,
       } else {
         set.BindNull(2);
       }
-      std::string now = change.now.empty() ? target.info.time : change.now;
-      if (now.empty()) now = "unknown";
+      const std::string now = change.now.empty() ? StoreClockNow() : change.now;
       s = set.Bind(3, int64_t{q.retired}).Bind(4, now).Bind(5, q.id).Run();
       if (!s.ok()) return s;
     }

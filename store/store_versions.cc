@@ -21,8 +21,6 @@
 
 namespace chute {
 
-namespace {
-
 std::string StoreClockNow() {
   std::time_t t = std::chrono::system_clock::to_time_t(std::chrono::system_clock::now());
   std::tm tm{};
@@ -31,6 +29,8 @@ std::string StoreClockNow() {
   std::strftime(buf, sizeof buf, "%Y-%m-%dT%H:%M:%SZ", &tm);
   return buf;
 }
+
+namespace {
 
 VersionInfo ReadVersionRow(const sql::Statement& st) {
   VersionInfo v;

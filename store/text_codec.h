@@ -5,7 +5,8 @@
 //
 // Format: Y. Collet, M. Kucherawy (ed.), "Zstandard Compression and the
 // 'application/zstd' Media Type", RFC 8878, 2021, section 3.1.1 (frames,
-// Frame_Content_Size, Content_Checksum). Library: libzstd.
+// Frame_Content_Size, Content_Checksum); the reference recalled from
+// memory. Library: libzstd.
 #ifndef CHUTE_STORE_TEXT_CODEC_H_
 #define CHUTE_STORE_TEXT_CODEC_H_
 
@@ -25,15 +26,16 @@ namespace chute {
 
 // The compression level of kept text (zstd's own default,
 // ZSTD_CLEVEL_DEFAULT). Measured on this machine, each document packed on
-// its own with a checksum (README-text.md has the table):
+// its own with a checksum, as the ledger keeps it:
 //   demo corpus (476 documents, 371 KB): level 1 keeps 66.7% of the bytes,
 //     3 keeps 66.7%, 9 keeps 66.2%, 19 keeps 65.9%; packing runs at 63, 56,
 //     32 and 9 MB/s;
-//   5 MB of the benchmark corpus (tests/bench/make_corpus.py, 0.5-20 KB
+//   4 MB of the benchmark corpus (tests/bench/make_corpus.py, 0.5-20 KB
 //     documents): 54.8%, 54.3%, 52.9%, 51.8% at 104, 71, 21 and 5 MB/s.
 // Higher levels save at most 2.5 points for 3 to 14 times the time; level
-// 1 is a little faster for a little less. Packing at level 3 is several
-// times faster than tokenizing, so it costs learn little.
+// 1 saves nothing worth having in speed: a whole learn of those 4 MB took
+// as long at level 1 as at 3 within the noise of a busy machine, and its
+// store came out 20 KB larger.
 inline constexpr int kTextLevel = 3;
 
 // The largest text Unpack accepts (a damaged content size must not make it

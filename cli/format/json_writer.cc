@@ -100,6 +100,12 @@ JsonWriter& JsonWriter::Null() {
   return *this;
 }
 
+JsonWriter& JsonWriter::Raw(std::string_view json) {
+  Separate();
+  out_ += json;
+  return *this;
+}
+
 std::string JsonWriter::Take() {
   std::string s = std::move(out_);
   out_.clear();

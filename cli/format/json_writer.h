@@ -25,6 +25,9 @@ class JsonWriter {
   JsonWriter& Int(int64_t v);
   JsonWriter& Bool(bool v);
   JsonWriter& Null();
+  // A value already encoded as JSON, written as it is.
+  // REQUIRES: json is one valid JSON value (chute's own, never user input).
+  JsonWriter& Raw(std::string_view json);
   // null for an empty string (an absent value), else the string.
   JsonWriter& StringOrNull(std::string_view s) { return s.empty() ? Null() : String(s); }
 

@@ -9,7 +9,8 @@
 namespace chute {
 namespace {
 
-// 2026-12-02T04:33:13Z: 20789 days after 1970-01-01, plus 4:33:13.
+// 2026-12-02T04:33:13Z: 20789 days after 1970-01-01, plus 4:33:13. The
+// expected times below were counted with Python's datetime module.
 constexpr std::time_t kNow =
     std::time_t{20789} * 86400 + 4 * 3600 + 33 * 60 + 13;
 

@@ -10,6 +10,7 @@
 #include <filesystem>
 #include <fstream>
 #include <iterator>
+#include <regex>
 #include <stdexcept>
 
 namespace chute::testing {
@@ -107,6 +108,11 @@ std::string TempDir::Write(const std::string& rel, const std::string& bytes) con
   std::filesystem::create_directories(p.parent_path());
   std::ofstream(p, std::ios::binary) << bytes;
   return p.string();
+}
+
+std::string WithoutModelVersion(const std::string& jsonl) {
+  static const std::regex kField(R"("model_version":[0-9]+,)");
+  return std::regex_replace(jsonl, kField, "");
 }
 
 std::vector<std::string> Lines(const std::string& text) {

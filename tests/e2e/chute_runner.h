@@ -39,6 +39,11 @@ std::string ReadBytes(const std::string& path);
 // Lines of text, without their line ends.
 std::vector<std::string> Lines(const std::string& text);
 
+// route's JSON Lines without their "model_version" fields: two stores with
+// the same model route alike (same posteriors and fingerprint) though their
+// histories, and so their version numbers, differ.
+std::string WithoutModelVersion(const std::string& jsonl);
+
 }  // namespace chute::testing
 
 #endif  // CHUTE_TESTS_E2E_CHUTE_RUNNER_H_

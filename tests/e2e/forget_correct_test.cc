@@ -51,7 +51,7 @@ class ForgetCorrectTest : public ::testing::Test {
     RunResult r = Chute(
         {"route", "--db", db, "inbox", "--format", "jsonl", "--top", "10"});
     EXPECT_EQ(r.exit_code, 0) << r.err;
-    return r.out;
+    return WithoutModelVersion(r.out);
   }
   void WriteInbox() {
     dir_.Write("inbox/1.txt", "invoice for the berth at pier 4");

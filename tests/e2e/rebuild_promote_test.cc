@@ -206,6 +206,31 @@ TEST_F(RebuildPromoteTest,
   Ok({"check", "--db", "a.db"});
 }
 
+TEST_F(RebuildPromoteTest, RollbackAndAtVersionReachBackAcrossATokenizingRebuild) {
+  WriteTree("lab", 6);
+  Fresh("a.db", "lab", {});
+  RunResult r = Chute({"versions", "--db", "a.db", "--format", "jsonl"});
+  ASSERT_EQ(r.exit_code, 0) << r.err;
+  const std::string before = std::to_string(json::parse(Lines(r.out).back())["version"].get<int>());
+  const std::vector<std::string> old_routes = Routes("a.db");
+  Ok({"rebuild", "--db", "a.db", "--bigrams", "on", "--min-length", "2"});
+  ASSERT_NE(Routes("a.db"), old_routes);
+  r = Chute({"route", "--db", "a.db", "inbox", "--format", "jsonl", "--top", "5", "--at-version",
+             before});
+  ASSERT_EQ(r.exit_code, 0) << r.err;
+  std::vector<std::string> at;
+  for (const std::string& line : Lines(r.out)) {
+    json row = json::parse(line);
+    at.push_back(row["file"].dump() + row["top"].dump());
+  }
+  EXPECT_EQ(at, old_routes);
+  r = Chute({"rollback", "--db", "a.db", before});
+  ASSERT_EQ(r.exit_code, 0) << r.err << r.out;
+  EXPECT_NE(r.out.find("the same as version " + before), std::string::npos) << r.out;
+  EXPECT_EQ(Routes("a.db"), old_routes);
+  Ok({"check", "--db", "a.db"});
+}
+
 // Berth letters learned under billing by mistake; a reviewer's corrections
 // go into a candidate.
 class GateTest : public RebuildPromoteTest {

@@ -213,6 +213,28 @@ TEST_F(TextPurgeTest, PurgeErasesOlderTextsAndPathsAndRoutesAsBefore) {
         << suffix;
   }
 
+  // evaluate --with-paths names a purged document by its digest, the one
+  // learned later by its path.
+  RunResult ev = Chute({"evaluate", "--db", "s.db", "--folds", "2",
+                        "--with-paths", "--csv", "ev"});
+  ASSERT_EQ(ev.exit_code, 0) << ev.err;
+  int by_digest = 0, by_path = 0;
+  for (const std::string& line :
+       Lines(ReadBytes(dir_.path() + "/ev/predictions.csv"))) {
+    const std::string name = line.substr(0, line.find(','));
+    if (name == "document") continue;
+    if (name.find("/late/marina/m9.txt") != std::string::npos) {
+      ++by_path;
+    } else {
+      EXPECT_EQ(name.size(), 12u) << name;
+      EXPECT_EQ(name.find_first_not_of("0123456789abcdef"), std::string::npos)
+          << name;
+      ++by_digest;
+    }
+  }
+  EXPECT_EQ(by_digest, 6);
+  EXPECT_EQ(by_path, 1);
+
   // The table says what was done; a second purge finds nothing.
   RunResult again = Chute({"purge", "--db", "s.db", "--older-than", "400d"});
   ASSERT_EQ(again.exit_code, 0) << again.err;

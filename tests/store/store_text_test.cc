@@ -88,7 +88,7 @@ class StoreTextTest : public testing::Test {
                 d.terms, Pack(d.text));
     }
     LearnResult result;
-    Status s = store->Learn(batch, ChangeInfo{now, "test"}, &result);
+    Status s = store->Learn(batch, {now, "tester"}, &result);
     ASSERT_TRUE(s.ok()) << s.message();
     ASSERT_EQ(result.learned, static_cast<int64_t>(docs.size()));
   }
@@ -144,7 +144,7 @@ TEST_F(StoreTextTest, ADocumentAddedWithoutTextHasNone) {
   LearnBatch batch;
   batch.Add(Digest(7), "billing", "/inbox/7.txt", {"dues"});  // no packed text
   LearnResult result;
-  ASSERT_TRUE(store->Learn(batch, ChangeInfo{kMay, "test"}, &result).ok());
+  ASSERT_TRUE(store->Learn(batch, {kMay, "tester"}, &result).ok());
   std::vector<LedgerText> texts = Texts(store.get());
   ASSERT_EQ(texts.size(), 1u);
   EXPECT_FALSE(texts[0].text.has_value());
@@ -167,6 +167,37 @@ TEST_F(StoreTextTest, CorrectKeepsTheTextOfTheDocumentsItLearns) {
   EXPECT_EQ(texts[0].queue, "billing");
   EXPECT_EQ(texts[0].text.value_or(""), docs[0].text);
   EXPECT_EQ(texts[1].text.value_or(""), docs[1].text);
+}
+
+// A rollback keeps a document in the ledger for history (in_model false)
+// with its text; learning it again brings it back into the model under the
+// same ledger entry, and a batch without text does not erase the kept one.
+TEST_F(StoreTextTest, ADocumentKeptForHistoryKeepsItsTextAndReentersWithIt) {
+  std::unique_ptr<Store> store = Create(true);
+  std::vector<Doc> docs = Letters();
+  Learn(store.get(), {docs[0]}, kMay);
+  VersionInfo before;
+  ASSERT_TRUE(store->CurrentVersion(&before).ok());
+  Learn(store.get(), {docs[1]}, kMay);
+  RollbackResult rolled;
+  ASSERT_TRUE(store->Rollback(before.version, kChange, &rolled).ok());
+  std::vector<LedgerText> texts = Texts(store.get());
+  ASSERT_EQ(texts.size(), 2u);
+  EXPECT_TRUE(texts[0].in_model);
+  EXPECT_FALSE(texts[1].in_model);
+  EXPECT_EQ(texts[1].text.value_or(""), docs[1].text);
+
+  LearnBatch batch;
+  batch.Add(docs[1].digest, docs[1].queue, "/inbox/again.txt", docs[1].terms);
+  LearnResult result;
+  ASSERT_TRUE(store->Learn(batch, {kJune, "tester"}, &result).ok());
+  ASSERT_EQ(result.learned, 1);
+  std::vector<LedgerText> again = Texts(store.get());
+  ASSERT_EQ(again.size(), 2u);
+  EXPECT_EQ(again[1].ledger_id, texts[1].ledger_id);
+  EXPECT_TRUE(again[1].in_model);
+  EXPECT_EQ(again[1].learned_at, kJune);
+  EXPECT_EQ(again[1].text.value_or(""), docs[1].text);
 }
 
 TEST_F(StoreTextTest, ReadLedgerTextsStopsAtTheFirstErrorOfTheCallback) {
@@ -299,7 +330,7 @@ TEST_F(StoreTextTest, PurgeLeavesNoByteOfTheTextOrPathInTheFilesOrTheLog) {
               d.terms, Pack(d.text));
   }
   LearnResult learned;
-  ASSERT_TRUE(store->Learn(batch, ChangeInfo{kMay, "test"}, &learned).ok());
+  ASSERT_TRUE(store->Learn(batch, {kMay, "tester"}, &learned).ok());
   const std::string db = store->path();
   auto count = [&](const std::string& needle) {
     size_t n = 0;
