@@ -1,4 +1,5 @@
-# chute: the two README commands (make demo, make test) and the benchmark.
+# chute: the two README commands (make demo, make test), the benchmark and
+# the soak (the reliability tests at their full counts).
 # Each target installs the Debian packages it needs when they are missing
 # (apt-get update first; sudo when not root), configures with CMake, builds
 # and runs.
@@ -30,7 +31,7 @@ define install_missing
 	fi
 endef
 
-.PHONY: all deps test-deps bench-deps configure build demo test bench clean
+.PHONY: all deps test-deps bench-deps configure build demo test bench soak clean
 
 all: build
 
@@ -61,6 +62,13 @@ bench: bench-deps
 	cmake -S . -B $(BUILD_DIR) -DCMAKE_BUILD_TYPE=Release -DCHUTE_BENCH=ON $(CMAKE_EXTRA_FLAGS)
 	cmake --build $(BUILD_DIR) -j $(JOBS)
 	tests/bench/run.sh $(BUILD_DIR)
+
+# The reliability tests of make test (label "reliability") at their full
+# counts: 50 random kills; 120 corrections and 120 learns under four routers.
+soak: deps configure
+	cmake --build $(BUILD_DIR) -j $(JOBS) --target chute
+	/usr/bin/python3 tests/e2e/crash_test.py $(BUILD_DIR)/chute --full
+	/usr/bin/python3 tests/e2e/concurrency_test.py $(BUILD_DIR)/chute --full
 
 clean:
 	rm -rf $(BUILD_DIR)

@@ -66,13 +66,123 @@ class Hasher {
   std::string buf_;
 };
 
+// One reusable SHA-256 context for row digests (row digests are many and
+// short: a context per row would cost more than the hashing).
+class RowHasher {
+ public:
+  RowHasher() : ctx_(EVP_MD_CTX_new()) {}
+  ~RowHasher() { EVP_MD_CTX_free(ctx_); }
+  RowHasher(const RowHasher&) = delete;
+  RowHasher& operator=(const RowHasher&) = delete;
+
+  void Digest(std::string_view term, std::string_view queue, int64_t n, unsigned char out[32]) {
+    buf_.clear();
+    buf_ += "t ";
+    AppendInt(static_cast<int64_t>(term.size()));
+    buf_ += ':';
+    buf_.append(term);
+    buf_ += ' ';
+    AppendInt(static_cast<int64_t>(queue.size()));
+    buf_ += ':';
+    buf_.append(queue);
+    buf_ += ' ';
+    AppendInt(n);
+    unsigned int len = 0;
+    EVP_DigestInit_ex(ctx_, EVP_sha256(), nullptr);
+    EVP_DigestUpdate(ctx_, buf_.data(), buf_.size());
+    EVP_DigestFinal_ex(ctx_, out, &len);
+  }
+
+ private:
+  void AppendInt(int64_t v) {
+    char tmp[24];
+    auto r = std::to_chars(tmp, tmp + sizeof tmp, v);
+    buf_.append(tmp, static_cast<size_t>(r.ptr - tmp));
+  }
+  EVP_MD_CTX* ctx_;
+  std::string buf_;
+};
+
+RowHasher& ThreadRowHasher() {
+  thread_local RowHasher hasher;
+  return hasher;
+}
+
 }  // namespace
 
+void CountsSum::Add(std::string_view term, std::string_view queue, int64_t n, int sign) {
+  unsigned char md[32];
+  ThreadRowHasher().Digest(term, queue, n, md);
+  // The digest's bytes as a big-endian 256-bit number, into limbs.
+  std::array<uint64_t, 4> d{};
+  for (int limb = 0; limb < 4; ++limb) {
+    uint64_t v = 0;
+    for (int b = 0; b < 8; ++b) v = (v << 8) | md[(3 - limb) * 8 + b];
+    d[static_cast<size_t>(limb)] = v;
+  }
+  if (sign >= 0) {
+    uint64_t carry = 0;
+    for (size_t i = 0; i < 4; ++i) {
+      uint64_t t = limbs_[i] + d[i];
+      uint64_t c1 = t < d[i] ? 1 : 0;
+      limbs_[i] = t + carry;
+      carry = c1 | (limbs_[i] < t ? 1 : 0);
+    }
+  } else {
+    uint64_t borrow = 0;
+    for (size_t i = 0; i < 4; ++i) {
+      uint64_t a = limbs_[i];
+      uint64_t r = a - d[i] - borrow;
+      borrow = (a < d[i] || (a == d[i] && borrow)) ? 1 : 0;
+      limbs_[i] = r;
+    }
+  }
+}
+
+std::string CountsSum::Hex() const {
+  static constexpr char kHex[] = "0123456789abcdef";
+  std::string out;
+  for (size_t limb = 4; limb-- > 0;) {
+    for (int shift = 60; shift >= 0; shift -= 4) out.push_back(kHex[(limbs_[limb] >> shift) & 15]);
+  }
+  return out;
+}
+
+bool CountsSum::FromHex(std::string_view hex, CountsSum* out) {
+  if (hex.size() != 64) return false;
+  CountsSum s;
+  for (size_t i = 0; i < 64; ++i) {
+    char c = hex[i];
+    int v = c >= '0' && c <= '9' ? c - '0' : c >= 'a' && c <= 'f' ? c - 'a' + 10 : -1;
+    if (v < 0) return false;
+    size_t limb = 3 - i / 16;
+    s.limbs_[limb] = (s.limbs_[limb] << 4) | static_cast<uint64_t>(v);
+  }
+  *out = s;
+  return true;
+}
+
+CountsSum SumOfCounts(const ModelCounts& counts) {
+  CountsSum sum;
+  const size_t nq = counts.queues.size();
+  for (size_t row = 0; row < counts.terms.size(); ++row) {
+    for (size_t q = 0; q < nq; ++q) {
+      if (int64_t n = counts.counts[row * nq + q]; n > 0) sum.Add(counts.terms[row], counts.queues[q].name, n);
+    }
+  }
+  return sum;
+}
+
 std::string ModelFingerprint(const StoreSettings& settings, const ModelCounts& counts) {
+  return ModelFingerprint(settings, counts, SumOfCounts(counts));
+}
+
+std::string ModelFingerprint(const StoreSettings& settings, const ModelCounts& counts,
+                             const CountsSum& sum) {
   Hasher h;
   const TokenizerOptions& t = settings.tokenizer;
   const ModelOptions& m = settings.model;
-  h.Add("chute-model 1\nalpha ");
+  h.Add("chute-model 2\nalpha ");
   h.Add(m.alpha);
   h.Add(m.prior == PriorMode::kUniform ? "\nprior uniform" : "\nprior learned");
   h.Add(t.bigrams ? "\nbigrams on" : "\nbigrams off");
@@ -107,19 +217,9 @@ std::string ModelFingerprint(const StoreSettings& settings, const ModelCounts& c
     }
     h.Add("\n");
   }
-  for (size_t row = 0; row < counts.terms.size(); ++row) {
-    const int64_t* r = counts.counts.data() + row * nq;
-    for (size_t i = 0; i < order.size(); ++i) {
-      if (r[order[i]] == 0) continue;
-      h.Add("t ");
-      h.AddSized(counts.terms[row]);
-      h.Add(" ");
-      h.Add(static_cast<int64_t>(i));
-      h.Add(" ");
-      h.Add(r[order[i]]);
-      h.Add("\n");
-    }
-  }
+  h.Add("counts ");
+  h.Add(sum.Hex());
+  h.Add("\n");
   return h.Hex();
 }
 

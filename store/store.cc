@@ -5,12 +5,14 @@
 #include <unistd.h>
 
 #include <algorithm>
+#include <cstdio>
 #include <cerrno>
 #include <charconv>
 #include <cstring>
 #include <unordered_map>
 #include <unordered_set>
 
+#include "store/fault_point.h"
 #include "store/queue_name.h"
 #include "store/schema.h"
 #include "store/store_file.h"
@@ -47,40 +49,65 @@ Store::Store(std::string path, sql::DbHandle db)
 
 Status Store::Create(const std::string& path, const StoreSettings& settings,
                      std::unique_ptr<Store>* out, const ChangeInfo& change) {
-  // Create the file ourselves so that it is 0600 from its first instant;
-  // SQLite gives its -wal and -shm files the same mode.
-  int fd = ::open(path.c_str(), O_CREAT | O_EXCL | O_WRONLY | O_CLOEXEC, 0600);
-  if (fd < 0) {
-    if (errno == EEXIST) {
-      return Status::InvalidArgument(path + ": already exists; chute init never overwrites a store");
-    }
-    return Status::IoError(path + ": cannot create: " + std::strerror(errno));
+  out->reset();
+  struct stat st {};
+  if (::lstat(path.c_str(), &st) == 0) {
+    return Status::InvalidArgument(path + ": already exists; chute init never overwrites a store");
   }
+  // The store is made whole under a temporary name in the same folder and
+  // then given its name in one step that never replaces a file, so that a
+  // crash leaves either no store or a complete one (at worst a stray
+  // .chute-init-* file). mkstemp makes the file 0600 from its first
+  // instant; SQLite gives its -wal and -shm files the same mode.
+  const size_t slash = path.rfind('/');
+  const std::string folder = slash == std::string::npos ? "." : path.substr(0, slash + 1);
+  std::string tmp = (slash == std::string::npos ? std::string() : folder) + ".chute-init-XXXXXX";
+  int fd = ::mkstemp(tmp.data());
+  if (fd < 0) return Status::IoError(path + ": cannot create: " + std::strerror(errno));
   ::close(fd);
-  auto fail = [&](Status s) {
-    out->reset();
-    for (const char* suffix : {"", "-wal", "-shm", "-journal"}) {
-      ::unlink((path + suffix).c_str());
-    }
-    return s;
+  auto remove_tmp = [&] {
+    for (const char* suffix : {"", "-wal", "-shm", "-journal"}) ::unlink((tmp + suffix).c_str());
   };
-  sql::DbHandle db;
-  Status s = OpenNewDb(path, &db);
-  if (s.ok()) s = sql::Exec(db.get(), "PRAGMA journal_mode = WAL");
-  if (s.ok()) s = ConfigureStoreConnection(db.get());
-  if (s.ok()) s = Migrate(db.get(), SchemaVersion());
-  if (!s.ok()) return fail(Status::IoError(path + ": " + s.message()));
-  std::unique_ptr<Store> store(new Store(path, std::move(db)));
+  Status s;
   {
-    sql::Transaction tx(store->db_.get());
-    s = tx.status();
-    if (s.ok()) s = store->SaveSettingsInTransaction(settings);
-    if (s.ok()) s = store->RecordVersionInTransaction("init", change, VersionDelta());
-    if (s.ok()) s = tx.Commit();
+    sql::DbHandle db;
+    s = OpenNewDb(tmp, &db);
+    if (s.ok()) s = sql::Exec(db.get(), "PRAGMA journal_mode = WAL");
+    if (s.ok()) s = ConfigureStoreConnection(db.get());
+    if (s.ok()) s = Migrate(db.get(), SchemaVersion());
+    if (s.ok()) {
+      Store store(tmp, std::move(db));
+      sql::Transaction tx(store.db_.get());
+      s = tx.status();
+      if (s.ok()) s = store.SaveSettingsInTransaction(settings);
+      if (s.ok()) s = store.RecordVersionInTransaction("init", change, VersionDelta());
+      if (s.ok()) s = tx.Commit();
+      // Closing the only connection checkpoints the write-ahead log into
+      // the file and deletes it (sqlite.org/wal.html), so the file alone is
+      // the store.
+    }
   }
-  if (!s.ok()) return fail(Status::IoError(path + ": " + s.message()));
-  *out = std::move(store);
-  return Status::Ok();
+  if (!s.ok()) {
+    remove_tmp();
+    return Status::IoError(path + ": " + s.message());
+  }
+  FaultPoint("init.before_name");
+  if (::renameat2(AT_FDCWD, tmp.c_str(), AT_FDCWD, path.c_str(), RENAME_NOREPLACE) != 0) {
+    int err = errno;
+    if (err == EINVAL || err == ENOSYS) {
+      // A filesystem without RENAME_NOREPLACE: a hard link never replaces.
+      err = ::link(tmp.c_str(), path.c_str()) == 0 ? 0 : errno;
+    }
+    if (err != 0) {
+      remove_tmp();
+      if (err == EEXIST) {
+        return Status::InvalidArgument(path + ": already exists; chute init never overwrites a store");
+      }
+      return Status::IoError(path + ": cannot create: " + std::strerror(err));
+    }
+  }
+  remove_tmp();  // after a link, the temporary name; after a rename, nothing
+  return Open(path, out);
 }
 
 Status Store::Open(const std::string& path, std::unique_ptr<Store>* out) {
@@ -214,6 +241,24 @@ Status Store::LoadModelCounts(ModelCounts* out, VersionInfo* version) {
   return version ? CurrentVersion(version) : Status::Ok();
 }
 
+Status Store::LoadQueueCounts(ModelCounts* out) {
+  *out = ModelCounts();
+  sql::Statement st(db_.get(),
+                    "SELECT name, documents, tokens, set_prior FROM queues "
+                    "WHERE retired IS NULL ORDER BY name");
+  if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+  int rc;
+  while ((rc = st.Step()) == SQLITE_ROW) {
+    QueueCounts q;
+    q.name = st.ColumnText(0);
+    q.documents = st.ColumnInt(1);
+    q.tokens = st.ColumnInt(2);
+    if (!st.ColumnIsNull(3)) q.set_prior = st.ColumnDouble(3);
+    out->queues.push_back(std::move(q));
+  }
+  return rc == SQLITE_DONE ? Status::Ok() : sql::ErrorStatus(db_.get(), path_);
+}
+
 Status Store::FindDocument(const std::string& digest,
                            std::optional<LedgerEntry>* out) {
   out->reset();
@@ -279,6 +324,13 @@ Status Store::Learn(const LearnBatch& batch, const ChangeInfo& change,
   if (!tx.status().ok()) {
     return Status::Busy(path_ + ": " + tx.status().message());
   }
+  // The running sum is this change's only (a failed change must not leave
+  // its sum to the next one).
+  sum_state_ = SumState::kFresh;
+  struct SumReset {
+    SumState* state;
+    ~SumReset() { *state = SumState::kFresh; }
+  } sum_reset{&sum_state_};
   VersionDelta delta;
   const std::string now = change.now.empty() ? StoreClockNow() : change.now;
   Status s = LearnInTransaction(batch, now, result, &delta);
@@ -287,6 +339,7 @@ Status Store::Learn(const LearnBatch& batch, const ChangeInfo& change,
     s = RecordVersionInTransaction("learn", change, delta);
     if (!s.ok()) return s;
   }
+  FaultPoint("learn.before_commit");
   s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();
@@ -433,7 +486,12 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
     sql::Statement add(db, "INSERT INTO terms(text) VALUES(?)");
     sql::Statement upsert(db,
                           "INSERT INTO counts(term_id, queue_id, n) VALUES(?, ?, ?) "
-                          "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n");
+                          "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n "
+                          "RETURNING n");
+    if (sum_state_ == SumState::kFresh) {
+      if (Status s = StartRunningSumInTransaction(); !s.ok()) return fail(s);
+    }
+    const bool track = sum_state_ == SumState::kRunning;
     if (!find.ok() || !add.ok() || !upsert.ok()) {
       return Status::IoError(path_ + ": " + find.error() + add.error() + upsert.error());
     }
@@ -453,8 +511,15 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
         find.Reset();
         last_rank = sum.term_rank;
       }
-      Status s = upsert.Bind(1, term_id).Bind(2, queue_ids[sum.queue]).Bind(3, sum.n).Run();
+      upsert.Bind(1, term_id).Bind(2, queue_ids[sum.queue]).Bind(3, sum.n);
+      if (upsert.Step() != SQLITE_ROW) return fail(sql::ErrorStatus(db, path_));
+      const int64_t after = upsert.ColumnInt(0);
+      Status s = upsert.Run();  // finishes the statement (RETURNING) and resets it
       if (!s.ok()) return fail(s);
+      if (track) {
+        running_sum_.Change(batch.term(by_text[sum.term_rank]), queue_names[sum.queue],
+                            after - sum.n, after);
+      }
     }
   }
 

@@ -18,6 +18,7 @@
 #include <vector>
 
 #include "classify/model_counts.h"
+#include "store/fingerprint.h"
 #include "store/learn_batch.h"
 #include "store/sqlite.h"
 #include "store/status.h"
@@ -283,6 +284,9 @@ class Store {
   // With version, also the current version (read in the same snapshot).
   // Retired queues are left out.
   Status LoadModelCounts(ModelCounts* out, VersionInfo* version = nullptr);
+
+  // LoadModelCounts without terms and counts: the queues only.
+  Status LoadQueueCounts(ModelCounts* out);
 
   // Versions, oldest first (those pruned are gone).
   Status ListVersions(std::vector<VersionInfo>* out);
@@ -566,6 +570,16 @@ class Store {
   StoreSettings settings_;
   // Prepared once: learn asks for every document it reads.
   sql::Statement find_document_;
+  // The sum of count digests (fingerprint.h) while a change keeps it up to
+  // date row by row: kFresh between changes; kRunning once a change loaded
+  // it and updates it with every count it writes; kInvalid once counts were
+  // written without updating it (the version then sums every count).
+  enum class SumState { kFresh, kRunning, kInvalid };
+  SumState sum_state_ = SumState::kFresh;
+  CountsSum running_sum_;
+  // Loads running_sum_ (settings row counts_sum, else summed from every
+  // count) and sets kRunning, when kFresh.
+  Status StartRunningSumInTransaction();
 };
 
 }  // namespace chute

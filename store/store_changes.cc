@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "store/count_tables.h"
+#include "store/fault_point.h"
 #include "store/store.h"
 #include "store/term_counts_codec.h"
 
@@ -133,6 +134,7 @@ Status Store::MoveInTransaction(
   from->clear();
   if (moves.empty()) return Status::Ok();
   sqlite3* db = db_.get();
+  sum_state_ = SumState::kInvalid;  // CountEditor does not keep the sum
   CountEditor edit(db, path_);
   Status s = edit.status();
   if (!s.ok()) return s;
@@ -228,6 +230,11 @@ Status Store::Correct(const std::vector<CorrectMove>& moves,
                       const LearnBatch& batch, const ChangeInfo& change,
                       CorrectResult* result) {
   *result = CorrectResult();
+  sum_state_ = SumState::kFresh;
+  struct SumReset {
+    SumState* state;
+    ~SumReset() { *state = SumState::kFresh; }
+  } sum_reset{&sum_state_};
   sql::Transaction tx(db_.get());
   if (!tx.status().ok())
     return Status::Busy(path_ + ": " + tx.status().message());
@@ -257,6 +264,7 @@ Status Store::Correct(const std::vector<CorrectMove>& moves,
     Status s = RecordVersionInTransaction("correct", change, delta);
     if (!s.ok()) return s;
   }
+  FaultPoint("correct.before_commit");
   Status s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();
@@ -309,9 +317,11 @@ Status Store::Forget(const std::vector<std::string>& digests,
     // The version records how many documents left, never which.
     s = RecordVersionInTransaction("forget", change, delta);
     if (!s.ok()) return s;
+    FaultPoint("forget.before_commit");
     s = tx.Commit();
     if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   }
+  FaultPoint("forget.before_checkpoint");
   // Empty the write-ahead log, which otherwise keeps the pages as they were
   // before.
   result->checkpointed = sql::CheckpointTruncate(db);
@@ -342,6 +352,7 @@ Status Store::Rollback(int64_t v, const ChangeInfo& change,
                               "{\"rollback_to\":" + std::to_string(v) + "}",
                               result);
   if (!s.ok()) return s;
+  FaultPoint("rollback.before_commit");
   s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();

@@ -72,6 +72,22 @@ Status Store::WriteSnapshotInTransaction(int64_t v) {
   return put.Bind(1, v).BindBlob(2, EncodeMembers(members)).Run();
 }
 
+Status Store::StartRunningSumInTransaction() {
+  if (sum_state_ != SumState::kFresh) return Status::Ok();
+  sql::Statement get(db_.get(), "SELECT value FROM settings WHERE key = 'counts_sum'");
+  if (!get.ok()) return Status::IoError(path_ + ": " + get.error());
+  if (get.Step() == SQLITE_ROW && CountsSum::FromHex(get.ColumnText(0), &running_sum_)) {
+    sum_state_ = SumState::kRunning;
+    return Status::Ok();
+  }
+  // Not recorded yet (or damaged): sum every count once.
+  ModelCounts counts;
+  if (Status s = LoadModelCounts(&counts); !s.ok()) return s;
+  running_sum_ = SumOfCounts(counts);
+  sum_state_ = SumState::kRunning;
+  return Status::Ok();
+}
+
 Status Store::EraseFromSnapshotsInTransaction(const std::vector<int64_t>& ids) {
   if (ids.empty()) return Status::Ok();
   std::vector<int64_t> gone(ids);
@@ -120,9 +136,26 @@ Status Store::CurrentQueuesInTransaction(std::vector<VersionQueue>* out) {
 Status Store::RecordVersionInTransaction(const std::string& command, const ChangeInfo& change,
                                          const VersionDelta& delta, VersionInfo* made) {
   sqlite3* db = db_.get();
+  // The queues (and, unless a running sum was kept, every count).
   ModelCounts counts;
-  Status s = LoadModelCounts(&counts);
+  Status s;
+  CountsSum sum;
+  if (sum_state_ == SumState::kRunning) {
+    s = LoadQueueCounts(&counts);
+    sum = running_sum_;
+  } else {
+    s = LoadModelCounts(&counts);
+    sum = SumOfCounts(counts);
+  }
+  sum_state_ = SumState::kFresh;
   if (!s.ok()) return s;
+  {
+    sql::Statement put(db,
+                       "INSERT INTO settings(key, value) VALUES('counts_sum', ?) "
+                       "ON CONFLICT(key) DO UPDATE SET value = excluded.value");
+    if (!put.ok()) return Status::IoError(path_ + ": " + put.error());
+    if (s = put.Bind(1, sum.Hex()).Run(); !s.ok()) return s;
+  }
   std::vector<VersionQueue> queues;
   if (s = CurrentQueuesInTransaction(&queues); !s.ok()) return s;
   VersionInfo v;
@@ -132,7 +165,7 @@ Status Store::RecordVersionInTransaction(const std::string& command, const Chang
   v.added = delta.added;
   v.moved = delta.moved;
   v.removed = delta.removed;
-  v.fingerprint = ModelFingerprint(settings_, counts);
+  v.fingerprint = ModelFingerprint(settings_, counts, sum);
   v.details = delta.details;
   sql::Statement add(db,
                      "INSERT INTO versions(time, command, by, added, moved, removed, "

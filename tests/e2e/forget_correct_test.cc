@@ -4,6 +4,7 @@
 #include <gtest/gtest.h>
 #include <sqlite3.h>
 
+#include <cctype>
 #include <filesystem>
 #include <map>
 #include <nlohmann/json.hpp>
@@ -356,6 +357,124 @@ TEST_F(ForgetCorrectTest, CorrectionsFileWithBomCrlfQuotesAndBadLines) {
   EXPECT_NE(bad.err.find("bad.csv: line 1: the header has no 'queue' column"),
             std::string::npos)
       << bad.err;
+}
+
+// The versions the store has made: a change that is refused as a whole
+// makes none.
+int64_t VersionCount(const std::string& db) {
+  sqlite3* raw = nullptr;
+  int64_t count = -1;
+  if (sqlite3_open_v2(db.c_str(), &raw, SQLITE_OPEN_READONLY, nullptr) ==
+      SQLITE_OK) {
+    sqlite3_stmt* st = nullptr;
+    if (sqlite3_prepare_v2(raw, "SELECT COUNT(*) FROM versions", -1, &st,
+                           nullptr) == SQLITE_OK &&
+        sqlite3_step(st) == SQLITE_ROW) {
+      count = sqlite3_column_int64(st, 0);
+    }
+    sqlite3_finalize(st);
+  }
+  sqlite3_close_v2(raw);
+  return count;
+}
+
+// Files that cannot be read as a corrections file fail whole, exit 1,
+// naming the file (and the line where there is one), and change nothing.
+TEST_F(ForgetCorrectTest, CorrectionsFileThatCannotBeUsedChangesNothing) {
+  WriteTree("l");
+  WriteInbox();
+  Init("s.db");
+  ASSERT_EQ(Chute({"learn", "--db", "s.db", "--tree", "l"}).exit_code, 0);
+  const std::string routed = Route("s.db");
+  const int64_t versions = VersionCount(dir_.path() + "/s.db");
+  ASSERT_GT(versions, 0);
+  const std::vector<std::pair<std::string, std::string>> files = {
+      {"", "empty.csv: empty; expected a header"},
+      {"\xEF\xBB\xBF", "empty.csv: empty; expected a header"},
+      {"document,queue\r\n\"l/berths/b1.txt,marina\r\nl/marina/"
+       "m1.txt,berths\r\n",
+       "empty.csv: line 3: a quoted field is never closed"},
+      {"queue,team\nmarina,l/berths/b1.txt\n",
+       "empty.csv: line 1: the header has no 'document' (or 'path') column"},
+  };
+  for (const auto& [bytes, message] : files) {
+    dir_.Write("empty.csv", bytes);
+    RunResult r = Chute({"correct", "--db", "s.db", "empty.csv"});
+    EXPECT_EQ(r.exit_code, 1) << bytes;
+    EXPECT_NE(r.err.find(message), std::string::npos) << bytes << r.err;
+    EXPECT_EQ(Lines(r.err).size(), 1u) << r.err;
+  }
+  RunResult missing = Chute({"correct", "--db", "s.db", "nowhere.csv"});
+  EXPECT_EQ(missing.exit_code, 1);
+  EXPECT_NE(missing.err.find("nowhere.csv: no such file"), std::string::npos)
+      << missing.err;
+  // A header and nothing else: done, nothing to do.
+  dir_.Write("header.csv", "path,queue\r\n");
+  EXPECT_EQ(Chute({"correct", "--db", "s.db", "header.csv"}).exit_code, 0);
+  EXPECT_EQ(VersionCount(dir_.path() + "/s.db"), versions);
+  EXPECT_EQ(Route("s.db"), routed);
+}
+
+// Lines a reviewer's spreadsheet may well produce: columns in another order
+// and an extra one, a record spanning lines, a blank line, doubled quotes,
+// digest prefixes too short or in capitals, and queue names that can never
+// be folders even with --create-queues. Bad lines are refused by their own
+// line number; the good ones are applied.
+TEST_F(ForgetCorrectTest, CorrectionsFileLinesAreJudgedOneByOne) {
+  WriteTree("l");
+  Init("s.db");
+  ASSERT_EQ(Chute({"learn", "--db", "s.db", "--tree", "l"}).exit_code, 0);
+  const std::string b1 = Sha256Hex(ReadBytes(dir_.path() + "/l/berths/b1.txt"));
+  const std::string i1 =
+      Sha256Hex(ReadBytes(dir_.path() + "/l/billing/i1.txt"));
+  std::string upper = i1.substr(0, 16);
+  for (char& c : upper) c = static_cast<char>(std::toupper(c));
+  dir_.Write("l/odd \"name\".txt", "mooring at the marina pontoon");
+  const std::vector<std::string> records = {
+      "note,queue,document",                       // line 1
+      "moved by hand,marina,\"l/berths/b2.txt\"",  // 2
+      "\"two\nlines\",marina,l/berths/b3.txt",     // 3-4
+      "",                                          // 5: blank
+      "too short,berths," + b1.substr(0, 7),       // 6
+      "capitals,berths," + upper,                  // 7
+      "quotes,marina,\"l/odd \"\"name\"\".txt\"",  // 8: learned
+      "reserved,_review,l/marina/m1.txt",          // 9
+      "separator,a/b,l/marina/m2.txt",             // 10
+      "dots,..,l/marina/m2.txt",                   // 11
+      "new queue,customs,l/marina/m2.txt"};        // 12
+  std::string csv;
+  for (const std::string& record : records) csv += record + "\n";
+  dir_.Write("fixes.csv", csv);
+  RunResult r = Chute({"correct", "--db", "s.db", "fixes.csv",
+                       "--create-queues", "--format", "jsonl"});
+  EXPECT_EQ(r.exit_code, 3) << r.err;
+  std::vector<json> rows = JsonLines(r.out);
+  ASSERT_EQ(rows.size(), 9u) << r.out;
+  const std::vector<std::string> outcomes = {
+      "corrected", "corrected", "refused", "corrected", "learned",
+      "refused",   "refused",   "refused", "corrected"};
+  for (size_t i = 0; i < outcomes.size(); ++i) {
+    EXPECT_EQ(rows[i]["outcome"], outcomes[i]) << i << ": " << rows[i];
+  }
+  EXPECT_EQ(rows[4]["document"], "l/odd \"name\".txt");
+  EXPECT_EQ(rows[3]["digest"], i1);
+  for (const char* line : {"fixes.csv: line 6: ", "fixes.csv: line 9: ",
+                           "fixes.csv: line 10: ", "fixes.csv: line 11: "}) {
+    EXPECT_NE(r.err.find(line), std::string::npos) << line << r.err;
+  }
+  EXPECT_EQ(Lines(r.err).size(), 4u) << r.err;
+  EXPECT_NE(r.err.find("at least 8 hex digits"), std::string::npos) << r.err;
+  EXPECT_NE(r.err.find("reserved"), std::string::npos) << r.err;
+  std::map<std::string, int> docs;
+  for (const json& q :
+       JsonLines(Chute({"queues", "--db", "s.db", "--format", "jsonl"}).out)) {
+    docs[q["queue"]] = q["documents"];
+  }
+  // berths: b1 stays, i1 came; billing: i2, i3; marina: m1, b2, b3 and the
+  // new letter; customs: m2.
+  EXPECT_EQ(docs,
+            (std::map<std::string, int>{
+                {"berths", 2}, {"billing", 2}, {"customs", 1}, {"marina", 4}}));
 }
 
 }  // namespace
