@@ -278,6 +278,9 @@ Status Store::Forget(const std::vector<std::string>& digests,
   // (SQLite, "PRAGMA secure_delete", sqlite.org/pragma.html).
   Status s = sql::Exec(db, "PRAGMA secure_delete = ON");
   if (!s.ok()) return Status::IoError(path_ + ": " + s.message());
+  // What a rebuild stopped before its clean-up left (the old vocabulary and
+  // counts) may hold the document's terms: it goes first.
+  if (s = DropRecountLeftovers(); !s.ok()) return s;
   {
     sql::Transaction tx(db);
     if (!tx.status().ok())

@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "store/count_tables.h"
+#include "store/fault_point.h"
 #include "store/store.h"
 #include "store/term_counts_codec.h"
 #include "store/text_codec.h"
@@ -131,13 +132,23 @@ Status MembershipOf(sql::Statement& st, int64_t id, int64_t* queue,
 constexpr char kMembership[] =
     "SELECT in_model, queue_id FROM ledger WHERE id = ?";
 
+// A recount rewrites and frees pages that hold documents' counts and text:
+// they are overwritten with zeros, as forget's are (SQLite, "PRAGMA
+// secure_delete", sqlite.org/pragma.html), so that a document forgotten
+// later leaves no old copy behind.
+Status SecureDelete(sqlite3* db, const std::string& path) {
+  Status s = sql::Exec(db, "PRAGMA secure_delete = ON");
+  return s.ok() ? s : Status::IoError(path + ": " + s.message());
+}
+
 }  // namespace
 
 Status Store::BeginRecount(const StoreSettings& target,
                            const ChangeInfo& change, int64_t* base_version,
                            bool* replaced) {
   sqlite3* db = db_.get();
-  Status s = DropRecountLeftovers();
+  Status s = SecureDelete(db, path_);
+  if (s.ok()) s = DropRecountLeftovers();
   if (!s.ok()) return s;
   sql::Transaction tx(db);
   if (!tx.status().ok())
@@ -163,6 +174,7 @@ Status Store::BeginRecount(const StoreSettings& target,
 }
 
 Status Store::ClearCandidateInTransaction(bool* had_candidate) {
+  if (Status d = SecureDelete(db_.get(), path_); !d.ok()) return d;
   sqlite3* db = db_.get();
   {
     sql::Statement any(db, "SELECT EXISTS (SELECT 1 FROM candidate)");
@@ -189,6 +201,7 @@ Status Store::DiscardRecount() {
 }
 
 Status Store::DropRecountLeftovers() {
+  if (Status d = SecureDelete(db_.get(), path_); !d.ok()) return d;
   sql::Transaction tx(db_.get());
   if (!tx.status().ok())
     return Status::Busy(path_ + ": " + tx.status().message());
@@ -226,11 +239,14 @@ Status Store::LoadRecount(std::optional<RecountInfo>* out) {
 }
 
 Status Store::WriteRecounted(const std::vector<RecountedDocument>& docs) {
+  Status s = SecureDelete(db_.get(), path_);
+  if (!s.ok()) return s;
   sql::Transaction tx(db_.get());
   if (!tx.status().ok())
     return Status::Busy(path_ + ": " + tx.status().message());
-  Status s = WriteRecountedInTransaction(docs);
+  s = WriteRecountedInTransaction(docs);
   if (!s.ok()) return s;
+  FaultPoint("rebuild.batch_before_commit");
   return tx.Commit();
 }
 
@@ -403,10 +419,12 @@ Status Store::SwapRecount(const std::string& command, const ChangeInfo& change,
     Status s =
         SwapRecountInTransaction(command, change, details, recount, result);
     if (!s.ok()) return s;
+    FaultPoint("rebuild.swap_before_commit");
     s = tx.Commit();
     if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   }
   // The swap is done; leftovers that fail to go now go with the next one.
+  FaultPoint("rebuild.before_cleanup");
   DropRecountLeftovers();
   return Status::Ok();
 }
@@ -416,6 +434,7 @@ Status Store::SwapRecountInTransaction(const std::string& command,
                                        const std::string& details,
                                        const RecountFunction& recount,
                                        SwapResult* result) {
+  if (Status d = SecureDelete(db_.get(), path_); !d.ok()) return d;
   sqlite3* db = db_.get();
   std::optional<RecountInfo> info;
   Status s = LoadRecount(&info);
