@@ -34,6 +34,8 @@ CommandRun SetupBackup(CLI::App* command);
 CommandRun SetupRestore(CLI::App* command);
 CommandRun SetupForget(CLI::App* command);
 CommandRun SetupCorrect(CLI::App* command);
+CommandRun SetupRebuild(CLI::App* command);
+CommandRun SetupPromote(CLI::App* command);
 CommandRun SetupPurge(CLI::App* command);
 CommandRun SetupVersions(CLI::App* command);
 CommandRun SetupRollback(CLI::App* command);

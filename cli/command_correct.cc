@@ -25,6 +25,7 @@ struct CorrectOptions {
   std::string csv;
   std::string by;
   bool create_queues = false;
+  bool candidate = false;
   OutputFormat format = OutputFormat::kTable;
   int64_t max_bytes = kDefaultMaxBytes;
 };
@@ -242,8 +243,15 @@ int RunCorrect(const CorrectOptions& o) {
 
   CorrectResult result;
   if (!moves.empty() || !batch.empty()) {
-    Status s =
-        store->Correct(moves, batch, ChangeInfo{NowRfc3339(), o.by}, &result);
+    bool replaced = false;
+    Status s = o.candidate ? store->CorrectCandidate(moves, batch, ChangeInfo{NowRfc3339(), o.by},
+                                                     &result, &replaced)
+                           : store->Correct(moves, batch, ChangeInfo{NowRfc3339(), o.by}, &result);
+    if (s.ok() && o.candidate) {
+      Report("correct", std::string(replaced ? "the earlier candidate was replaced; " : "") +
+                            "the corrections went into a candidate, the current model did not "
+                            "change; 'chute promote' compares them");
+    }
     if (!s.ok()) {
       Report("correct", s.message() + "; nothing was changed");
       return kExitFailed;
@@ -293,6 +301,9 @@ CommandRun SetupCorrect(CLI::App* cmd) {
   AddByOption(cmd, &o->by);
   cmd->add_flag("--create-queues", o->create_queues,
                 "create queues the file names that do not exist yet");
+  cmd->add_flag("--candidate", o->candidate,
+                "put the corrections into a candidate for 'chute promote' instead of the "
+                "current model");
   AddFormatOption(cmd, &o->format);
   AddMaxBytesOption(cmd, &o->max_bytes);
   cmd->footer(
@@ -307,6 +318,7 @@ transaction.
 Examples:
   chute correct fixes.csv
   chute correct fixes.csv --by j.moreau --create-queues
+  chute correct fixes.csv --candidate && chute promote
   chute correct fixes.csv --format jsonl > applied.jsonl)");
   return [o] { return RunCorrect(*o); };
 }

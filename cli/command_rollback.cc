@@ -7,6 +7,8 @@
 #include "cli/exit_code.h"
 #include "cli/format/csv_writer.h"
 #include "cli/format/json_writer.h"
+#include "cli/parallel.h"
+#include "cli/recount.h"
 
 namespace chute {
 
@@ -28,7 +30,14 @@ int RunRollback(const RollbackOptions& o) {
     return kExitFailed;
   }
   RollbackResult r;
-  if (Status s = store->Rollback(o.version, ChangeInfo{NowRfc3339(), o.by}, &r); !s.ok()) {
+  const ChangeInfo change{NowRfc3339(), o.by};
+  // A rebuild changed the tokenizing since: the ledger is recounted with the
+  // version's settings from the kept text first (cli/recount.h).
+  const bool recount = !SameTokenizing(target.settings, store->settings());
+  if (Status s = recount ? RollbackAcrossTokenizing(store.get(), o.version, change,
+                                                    DefaultThreads(), &r)
+                         : store->Rollback(o.version, change, &r);
+      !s.ok()) {
     Report("rollback", s.message() + "; nothing was changed");
     return kExitFailed;
   }

@@ -1,5 +1,8 @@
 #include "cli/common_options.h"
 
+#include "cli/parallel.h"
+#include "cli/recount.h"
+
 #include <CLI/CLI.hpp>
 
 #include <pwd.h>
@@ -86,6 +89,12 @@ bool LoadModelOrReport(std::string_view command, Store* store, int64_t at_versio
   Status s;
   if (at_version > 0) {
     s = store->ModelAtVersion(at_version, &out->version, &out->settings, &counts);
+    if (s.code() == Status::Code::kInvalidArgument) {
+      // A rebuild changed the tokenizing since: the version's documents are
+      // counted again from their kept text (cli/recount.h).
+      s = RecountedModelAtVersion(store, at_version, DefaultThreads(), &out->version,
+                                  &out->settings, &counts);
+    }
   } else {
     s = store->LoadModelCounts(&counts, &out->version);
     out->settings = store->settings();

@@ -11,6 +11,7 @@ enum ExitCode : int {
   kExitFailed = 1,       // it could not; nothing was changed
   kExitUsage = 2,        // the command line was wrong (every parse error)
   kExitSomeRefused = 3,  // done, but some documents were refused (on stderr)
+  kExitGateRefused = 4,  // promote: the gate found the candidate worse; nothing changed
 };
 
 // The exit status of a command that handles a batch of documents: done when

@@ -26,6 +26,10 @@ constexpr chute::Command kCommands[] = {
      chute::SetupCorrect},
     {"forget", "unlearn documents exactly and erase what the store kept of them",
      chute::SetupForget},
+    {"rebuild", "recount the model under new settings from the kept texts; swap it in",
+     chute::SetupRebuild},
+    {"promote", "make the candidate the current model if it is not worse on held-out documents",
+     chute::SetupPromote},
     {"purge", "erase the kept text and source paths of documents learned before a time",
      chute::SetupPurge},
     {"versions", "list the model's versions: every committed change, with its fingerprint",
@@ -87,7 +91,8 @@ Start here:
   chute route --db harbour.db corpora/port-authority/inbox/
 
 Exit status: 0 done; 1 failed, nothing changed; 2 usage error;
-3 done, but some documents were refused (each reported on stderr).)");
+3 done, but some documents were refused (each reported on stderr);
+4 promote refused by its gate (the candidate was worse).)");
   std::vector<std::pair<CLI::App*, chute::CommandRun>> runs;
   for (const auto& c : kCommands) {
     CLI::App* sub = app.add_subcommand(c.name, c.summary);

@@ -26,3 +26,30 @@ echo "== chute route $corpus/inbox/"
 echo
 echo "== accuracy on the inbox, against $corpus/inbox-key.csv"
 /usr/bin/env python3 corpora/score_inbox.py "$corpus/inbox-key.csv" "$work/inbox-routed.csv"
+echo
+echo "== the reviewer loop: a reviewer files the missed letters where they belong"
+# The corrections a reviewer would write: each inbox letter routed to the
+# wrong queue, with the queue of the answer key.
+/usr/bin/env python3 - "$corpus/inbox-key.csv" "$work/inbox-routed.csv" "$work" > "$work/fixes.csv" <<'PY'
+import csv, os, sys
+key = {r["path"]: r["queue"] for r in csv.DictReader(open(sys.argv[1], encoding="utf-8"))}
+print("path,queue")
+for r in csv.DictReader(open(sys.argv[2], encoding="utf-8")):
+    want = key.get(r["file"]) or key.get(r["file"].split("/", 2)[-1])
+    if want and want != r["queue"]:
+        # Paths in a corrections file are relative to the file's folder.
+        print("%s,%s" % (os.path.relpath(r["file"], sys.argv[3]), want))
+PY
+cat "$work/fixes.csv"
+echo
+echo "== chute correct fixes.csv --candidate, then chute promote (the nightly step)"
+"$chute" correct --db "$db" "$work/fixes.csv" --candidate --by reviewer
+status=0
+"$chute" promote --db "$db" --by nightly || status=$?
+if [ "$status" -ne 0 ] && [ "$status" -ne 4 ]; then exit "$status"; fi
+echo
+echo "== chute versions"
+"$chute" versions --db "$db"
+echo
+echo "== chute check"
+"$chute" check --db "$db"

@@ -81,6 +81,38 @@ CREATE TABLE snapshots (
   members BLOB NOT NULL
 );
 )sql",
+    // 3: a rebuild's recount beside the current counts, and the candidate.
+    R"sql(
+CREATE TABLE rebuild (
+  id           INTEGER PRIMARY KEY CHECK (id = 1),
+  base_version INTEGER NOT NULL,
+  settings     TEXT NOT NULL,
+  started      TEXT NOT NULL,
+  by           TEXT NOT NULL
+);
+CREATE TABLE rebuild_docs (
+  ledger_id     INTEGER PRIMARY KEY,
+  counted_queue INTEGER,
+  tokens        INTEGER NOT NULL CHECK (tokens > 0),
+  term_counts   BLOB NOT NULL
+);
+CREATE TABLE rebuild_queues (
+  queue_id  INTEGER PRIMARY KEY,
+  documents INTEGER NOT NULL CHECK (documents >= 0),
+  tokens    INTEGER NOT NULL CHECK (tokens >= 0)
+);
+CREATE TABLE candidate (
+  id           INTEGER PRIMARY KEY CHECK (id = 1),
+  kind         TEXT NOT NULL CHECK (kind IN ('rebuild', 'correct')),
+  base_version INTEGER NOT NULL,
+  made         TEXT NOT NULL,
+  by           TEXT NOT NULL,
+  header       TEXT NOT NULL,
+  members      BLOB NOT NULL,
+  moves        TEXT NOT NULL,
+  details      TEXT
+);
+)sql",
 };
 
 int UserVersion(sqlite3* db) {

@@ -40,6 +40,28 @@
 //             queue id) encoded in one blob; a version's membership is the
 //             nearest snapshot at or before it plus the changes after it.
 //
+// Schema version 3 adds (store_rebuild.cc, store_candidate.cc):
+//
+//   rebuild   At most one row: a recount under new settings in progress or
+//             kept as a candidate: the version it started from, the target
+//             settings (as a version header's "s" lines), when and by whom.
+//   rebuild_docs  Per ledger document, its term counts recounted under the
+//             rebuild's settings (same encoding as ledger.term_counts), and
+//             the queue whose recounted counts include it (NULL: none).
+//   rebuild_queues  Per queue, the documents and N(q) of the recount.
+//             Beside them, while a recount exists, the tables rebuild_terms
+//             and rebuild_counts, made by the rebuild with the definitions of
+//             terms and counts (so not part of any migration): the
+//             recounted vocabulary and N(q, w). The swap renames them to
+//             terms and counts in one transaction; rebuild_counts always
+//             equals the sum of the rebuild_docs rows with a counted_queue.
+//   candidate At most one row: a model that `promote` may make current. Its
+//             kind (rebuild or correct), the version it was made from, when
+//             and by whom, a header like a version's (its settings and the
+//             queues), its members (as a snapshot's blob), its own
+//             corrections ("ledger_id from_queue to_queue" lines, oldest
+//             first) and the figures of the last promotion the gate refused.
+//
 // To change the schema: append a migration to kMigrations in schema.cc
 // (never edit a released one), which bumps SchemaVersion().
 // tests/store/schema_test.cc then builds a store of every older version,

@@ -179,6 +179,53 @@ struct ForgetResult {
   bool checkpointed = false;
 };
 
+// A document's term counts under a rebuild's tokenizing settings.
+struct RecountedDocument {
+  int64_t ledger_id = 0;
+  int64_t tokens = 0;            // sum of the counts; > 0
+  std::vector<TermCount> terms;  // sorted by bytes, distinct, counts > 0
+};
+
+// Recounts one kept text (doc->ledger_id is set by the caller). Fails, with
+// a reason, for a text that gives no term under the new settings.
+using RecountFunction = std::function<Status(const std::string& text, RecountedDocument* doc)>;
+
+// A recount in progress, or kept for a candidate (schema.h: rebuild).
+struct RecountInfo {
+  int64_t base_version = 0;  // the current version when it began
+  StoreSettings settings;    // the settings it counts with
+  std::string started;
+  std::string by;
+};
+
+// What a swap did besides renaming the recounted tables into place.
+struct SwapResult {
+  VersionInfo made;        // the version it recorded
+  int64_t caught_up = 0;   // documents learned meanwhile, recounted in the swap
+  int64_t resynced = 0;    // documents whose membership changed meanwhile
+};
+
+// A model that `promote` may make current (schema.h: candidate).
+struct Candidate {
+  std::string kind;  // "rebuild" or "correct"
+  int64_t base_version = 0;
+  std::string made;
+  std::string by;
+  StoreSettings settings;
+  std::vector<VersionQueue> queues;                  // when it was made
+  std::vector<std::pair<int64_t, int64_t>> members;  // when it was made
+  // Its own corrections, oldest first: from_queue 0 for a document that
+  // was not in the model (new, or kept only for history).
+  std::vector<MemberChange> moves;
+  std::string details;  // the figures of the last refused promotion, or empty
+};
+
+// A document whose queue a reviewer changed, newest correction first.
+struct Correction {
+  int64_t ledger_id = 0;
+  int64_t to_queue = 0;  // the queue the newest correction put it in
+};
+
 // A ledger entry with its kept text, for a rebuild that counts documents
 // again.
 struct LedgerText {
@@ -321,6 +368,104 @@ class Store {
   Status Forget(const std::vector<std::string>& digests, const ChangeInfo& change,
                 ForgetResult* result);
 
+  // --- Rebuild: a recount beside the current counts (store_rebuild.cc) ---
+  //
+  // BeginRecount drops any earlier recount and any candidate (*replaced
+  // says whether there was one), makes the side tables and records the
+  // current version as the recount's base. WriteRecounted adds documents to
+  // the side tables in one short transaction, each counted in the queue it
+  // is in now (documents forgotten meanwhile are skipped). SwapRecount,
+  // in one transaction: recounts (with `recount`) documents learned since
+  // they were last looked for, brings every document whose membership
+  // changed since its recount (the change log since the base version says
+  // which; forget keeps the side tables right itself) to its queue, checks
+  // that every ledger document is recounted and that every queue has as
+  // many documents as the current model, replaces every ledger entry's term
+  // counts, renames the recounted vocabulary and counts into place, saves
+  // the settings and records a version named `command` with `details`.
+  // Readers in a transaction keep the old model; the next read sees the
+  // new one. DropRecountLeftovers (its own transaction) then drops the old
+  // tables and empties the side tables; SwapRecount calls it.
+  Status BeginRecount(const StoreSettings& target, const ChangeInfo& change,
+                      int64_t* base_version, bool* replaced);
+  Status LoadRecount(std::optional<RecountInfo>* out);
+  Status WriteRecounted(const std::vector<RecountedDocument>& docs);
+  // Ledger ids with no recount yet, ascending.
+  Status UnrecountedDocuments(std::vector<int64_t>* ids);
+  // Ledger entries and those of them without a kept text.
+  Status CountKeptTexts(int64_t* documents, int64_t* without_text);
+  // Calls fn for each id (skipping those no longer in the ledger) with its
+  // kept text, or nullopt.
+  Status ReadTextsOf(const std::vector<int64_t>& ids,
+                     const std::function<Status(int64_t id, const std::optional<std::string>&)>& fn);
+  Status SwapRecount(const std::string& command, const ChangeInfo& change,
+                     const std::string& details, const RecountFunction& recount,
+                     SwapResult* result);
+
+  // Drops the recount and any candidate (one transaction).
+  Status DiscardRecount();
+
+  // Rollback to a version v whose tokenizing settings are not the store's
+  // (a rebuild changed them since): with a recount begun with v's settings
+  // (BeginRecount) and written, swaps it in and makes the model v's
+  // (ApplyState), as one version "rollback" in one transaction.
+  // InvalidArgument when the recount's tokenizing is not v's.
+  Status RollbackWithRecount(int64_t v, const ChangeInfo& change, const RecountFunction& recount,
+                             RollbackResult* result);
+
+  // --- Candidates (store_candidate.cc) ---
+  //
+  // Makes the candidate a rebuild's: its settings, the current queues and
+  // members. With a recount (LoadRecount) of other tokenizing settings, the
+  // recount stays for the promotion; otherwise any recount is dropped.
+  // Replaces any earlier candidate (*replaced).
+  Status SaveRebuildCandidate(const StoreSettings& settings, const ChangeInfo& change,
+                              bool* replaced);
+  // Like Correct, but into a new candidate (replacing any earlier one and
+  // any recount): the current model does not change. Moves are made on
+  // the candidate's members; new documents go into the ledger out of the
+  // model (in_model = 0) and are members of the candidate only.
+  Status CorrectCandidate(const std::vector<CorrectMove>& moves, const LearnBatch& batch,
+                          const ChangeInfo& change, CorrectResult* result, bool* replaced);
+  Status LoadCandidate(std::optional<Candidate>* out);
+  // Keeps the figures of a promotion the gate refused with the candidate.
+  Status SetCandidateDetails(const std::string& details);
+  // Makes the candidate current, in one transaction, as version "promote"
+  // with details: with the store's tokenizing settings, the model becomes
+  // the current members with the candidate's own corrections made again,
+  // and the candidate's model settings (as ApplyState); with other ones, the
+  // recount is swapped in (as SwapRecount). The candidate is removed.
+  // NotFound when there is no candidate.
+  Status PromoteCandidate(const ChangeInfo& change, const std::string& details,
+                          const RecountFunction& recount, RollbackResult* result);
+  // The candidate's members as promote would make them: the current
+  // members with its own corrections made again (documents forgotten since
+  // left out).
+  Status CandidateMembers(const Candidate& candidate,
+                          std::vector<std::pair<int64_t, int64_t>>* out);
+  // The current members (ledger id, queue id), by ledger id.
+  Status CurrentMembers(std::vector<std::pair<int64_t, int64_t>>* out);
+  // Changes the settings that do not concern tokenizing (smoothing, prior,
+  // keep_text) as a new version named `command` with details, in one
+  // transaction. InvalidArgument for other tokenizing settings.
+  Status ChangeModelSettings(const StoreSettings& settings, const std::string& command,
+                             const ChangeInfo& change, const std::string& details,
+                             VersionInfo* made);
+
+  // The newest corrections (documents moved between queues, from the change
+  // log), each document once, newest first; at most `limit`.
+  Status NewestCorrections(int64_t limit, std::vector<Correction>* out);
+  // The counts of a model of the given members (ledger id, queue id) over
+  // the store's queues that are not retired, by name, terms in byte order:
+  // from the ledger's term counts, or (recounted) from the recount's.
+  Status CountsOfMembers(const std::vector<std::pair<int64_t, int64_t>>& members,
+                         bool recounted, ModelCounts* out);
+  // Each document's own term counts, from the ledger or the recount.
+  Status DocumentTerms(const std::vector<int64_t>& ids, bool recounted,
+                       std::vector<std::vector<TermCount>>* out);
+  // Queue id -> name, every queue.
+  Status QueueNames(std::vector<std::pair<int64_t, std::string>>* out);
+
   // Queue changes, each one transaction and a version ("queues").
   // AddQueue: a new, empty queue (routed once it has documents), or a
   // retired one brought back. Fails when an active queue has the name.
@@ -384,6 +529,27 @@ class Store {
   Status ApplyStateInTransaction(const VersionState& target, const std::string& command,
                                  const ChangeInfo& change, const std::string& details,
                                  RollbackResult* result);
+  // The counts of members over the given queues (those not retired are the
+  // columns, by name), each document's counts from the ledger or the
+  // recount; inside the caller's read or write transaction.
+  Status SumMembers(const std::vector<VersionQueue>& queues,
+                    const std::vector<std::pair<int64_t, int64_t>>& members, bool recounted,
+                    ModelCounts* out);
+  // The queues as a version's header lists them, by id.
+  Status CurrentQueuesInTransaction(std::vector<VersionQueue>* out);
+  // Takes forgotten ledger ids out of the candidate's members and moves.
+  Status EraseFromCandidateInTransaction(const std::vector<int64_t>& ids);
+  // The side tables' part of Forget: the document's recount leaves them.
+  Status ForgetRecountInTransaction(int64_t ledger_id);
+  Status WriteRecountedInTransaction(const std::vector<RecountedDocument>& docs);
+  // With an empty command, records no version (the caller records one).
+  Status SwapRecountInTransaction(const std::string& command, const ChangeInfo& change,
+                                  const std::string& details, const RecountFunction& recount,
+                                  SwapResult* result);
+  Status DropRecountLeftovers();
+  // Empties the recount and candidate tables, inside the caller's write
+  // transaction; *had_candidate says whether a candidate was there.
+  Status ClearCandidateInTransaction(bool* had_candidate);
   // Takes forgotten ledger ids out of every snapshot that holds them.
   Status EraseFromSnapshotsInTransaction(const std::vector<int64_t>& ids);
   // Writes a snapshot of the current membership for version v.

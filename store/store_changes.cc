@@ -32,7 +32,7 @@ struct StoredDocument {
 };
 
 // Every queue's name by id (retired ones too).
-Status QueueNames(sqlite3* db, const std::string& path,
+Status ReadQueueNames(sqlite3* db, const std::string& path,
                   std::unordered_map<int64_t, std::string>* out) {
   sql::Statement st(db, "SELECT id, name FROM queues");
   if (!st.ok()) return Status::IoError(path + ": " + st.error());
@@ -208,7 +208,7 @@ class CountDelta {
     // Queue names, for the row digests of the running sum.
     std::unordered_map<int64_t, std::string> queue_names;
     if (running) {
-      if (Status s = QueueNames(db, path, &queue_names); !s.ok()) return s;
+      if (Status s = ReadQueueNames(db, path, &queue_names); !s.ok()) return s;
     }
     bool emptied = false;  // a row of the current term was deleted
     for (size_t i = 0; i < rows.size(); ++i) {
@@ -297,7 +297,7 @@ Status Store::MoveInTransaction(
   Status s = ledger.status();
   if (!s.ok()) return s;
   std::unordered_map<int64_t, std::string> queue_names;
-  if (s = QueueNames(db, path_, &queue_names); !s.ok()) return s;
+  if (s = ReadQueueNames(db, path_, &queue_names); !s.ok()) return s;
   // Each document read once; the moves are followed in order in memory
   // (where each document is, whether it is counted), then only the net
   // change is counted: out of the queue it was in, into the one it ends in.
@@ -468,6 +468,9 @@ Status Store::Forget(const std::vector<std::string>& digests,
   // (SQLite, "PRAGMA secure_delete", sqlite.org/pragma.html).
   Status s = sql::Exec(db, "PRAGMA secure_delete = ON");
   if (!s.ok()) return Status::IoError(path_ + ": " + s.message());
+  // What a rebuild stopped before its clean-up left (the old vocabulary and
+  // counts) may hold the document's terms: it goes first.
+  if (s = DropRecountLeftovers(); !s.ok()) return s;
   {
     sql::Transaction tx(db);
     if (!tx.status().ok())
@@ -495,8 +498,10 @@ Status Store::Forget(const std::vector<std::string>& digests,
         ++delta.removed;
       }
       s = remove.Bind(1, doc.ledger_id).Run();
-      // Every trace in the history too: the change log and the snapshots.
+      // Every trace in the history too: the change log and the snapshots;
+      // and its recount, when a rebuild or a candidate holds one.
       if (s.ok()) s = unlog.Bind(1, doc.ledger_id).Run();
+      if (s.ok()) s = ForgetRecountInTransaction(doc.ledger_id);
       if (!s.ok()) return s;
       erased.push_back(doc.ledger_id);
       result->forgotten.push_back(std::move(doc.entry));
@@ -513,6 +518,7 @@ Status Store::Forget(const std::vector<std::string>& digests,
                      sum_state_ == SumState::kRunning ? &running_sum_ : nullptr);
     if (!s.ok()) return s;
     if (s = EraseFromSnapshotsInTransaction(erased); !s.ok()) return s;
+    if (s = EraseFromCandidateInTransaction(erased); !s.ok()) return s;
     // The version records how many documents left, never which.
     s = RecordVersionInTransaction("forget", change, delta);
     if (!s.ok()) return s;

@@ -93,8 +93,7 @@ bool DecodeSettings(
     }
   }
   for (const char* key :
-       {"alpha", "prior", "bigrams", "numbers", "min_length", "max_length",
-        "keep_text"}) {
+       {"alpha", "prior", "bigrams", "numbers", "min_length", "max_length"}) {
     if (seen.count(key) == 0) {
       *why = std::string("setting ") + key + " is missing";
       return false;

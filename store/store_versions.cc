@@ -15,9 +15,9 @@
 #include <vector>
 
 #include "store/fingerprint.h"
-#include "store/version_codec.h"
 #include "store/store.h"
 #include "store/term_counts_codec.h"
+#include "store/version_codec.h"
 
 namespace chute {
 
@@ -116,6 +116,23 @@ Status Store::EraseFromSnapshotsInTransaction(const std::vector<int64_t>& ids) {
   return Status::Ok();
 }
 
+Status Store::CurrentQueuesInTransaction(std::vector<VersionQueue>* out) {
+  out->clear();
+  sql::Statement st(db_.get(),
+                    "SELECT id, name, set_prior, retired IS NOT NULL FROM queues ORDER BY id");
+  if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+  int rc;
+  while ((rc = st.Step()) == SQLITE_ROW) {
+    VersionQueue q;
+    q.id = st.ColumnInt(0);
+    q.name = st.ColumnText(1);
+    if (!st.ColumnIsNull(2)) q.set_prior = st.ColumnDouble(2);
+    q.retired = st.ColumnInt(3) != 0;
+    out->push_back(std::move(q));
+  }
+  return rc == SQLITE_DONE ? Status::Ok() : sql::ErrorStatus(db_.get(), path_);
+}
+
 Status Store::RecordVersionInTransaction(const std::string& command, const ChangeInfo& change,
                                          const VersionDelta& delta, VersionInfo* made) {
   sqlite3* db = db_.get();
@@ -140,18 +157,7 @@ Status Store::RecordVersionInTransaction(const std::string& command, const Chang
     if (s = put.Bind(1, sum.Hex()).Run(); !s.ok()) return s;
   }
   std::vector<VersionQueue> queues;
-  {
-    sql::Statement st(db, "SELECT id, name, set_prior, retired IS NOT NULL FROM queues ORDER BY id");
-    if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
-    while (st.Step() == SQLITE_ROW) {
-      VersionQueue q;
-      q.id = st.ColumnInt(0);
-      q.name = st.ColumnText(1);
-      if (!st.ColumnIsNull(2)) q.set_prior = st.ColumnDouble(2);
-      q.retired = st.ColumnInt(3) != 0;
-      queues.push_back(std::move(q));
-    }
-  }
+  if (s = CurrentQueuesInTransaction(&queues); !s.ok()) return s;
   VersionInfo v;
   v.time = change.now.empty() ? StoreClockNow() : change.now;
   v.command = command;
@@ -331,9 +337,21 @@ Status Store::ModelAtVersion(int64_t v, VersionInfo* info, StoreSettings* settin
         " tokenized with other settings than the store's documents are counted with now "
         "(a rebuild changed them); its documents must be recounted from their kept text");
   }
-  // Columns: the version's queues that are not retired, by name.
+  s = SumMembers(state.queues, state.members, /*recounted=*/false, out);
+  if (!s.ok()) return s;
+  *info = state.info;
+  *settings = state.settings;
+  return Status::Ok();
+}
+
+Status Store::SumMembers(const std::vector<VersionQueue>& queues,
+                         const std::vector<std::pair<int64_t, int64_t>>& members, bool recounted,
+                         ModelCounts* out) {
+  *out = ModelCounts();
+  sqlite3* db = db_.get();
+  // Columns: the queues that are not retired, by name.
   std::vector<const VersionQueue*> live;
-  for (const VersionQueue& q : state.queues) {
+  for (const VersionQueue& q : queues) {
     if (!q.retired) live.push_back(&q);
   }
   std::sort(live.begin(), live.end(),
@@ -350,20 +368,21 @@ Status Store::ModelAtVersion(int64_t v, VersionInfo* info, StoreSettings* settin
   std::unordered_map<std::string, size_t> row_of;
   std::vector<std::string> terms;
   std::vector<int64_t> sums;
-  sql::Statement doc(db, "SELECT tokens, term_counts FROM ledger WHERE id = ?");
+  sql::Statement doc(db, recounted
+                             ? "SELECT tokens, term_counts FROM rebuild_docs WHERE ledger_id = ?"
+                             : "SELECT tokens, term_counts FROM ledger WHERE id = ?");
   if (!doc.ok()) return Status::IoError(path_ + ": " + doc.error());
   std::vector<TermCount> own;
-  for (const auto& [id, queue] : state.members) {
+  for (const auto& [id, queue] : members) {
     auto col = column.find(queue);
     if (col == column.end()) {
-      return Status::Corruption(path_ + ": version " + std::to_string(v) +
-                                " counts a document in a queue its header does not list");
+      return Status::Corruption(path_ + ": a model counts a document in a queue it does not list");
     }
     doc.Bind(1, id);
     if (doc.Step() != SQLITE_ROW || !DecodeTermCounts(doc.ColumnBlob(1), &own)) {
       doc.Reset();
-      return Status::Corruption(path_ + ": a document of version " + std::to_string(v) +
-                                " is missing from the ledger or does not decode");
+      return Status::Corruption(path_ + ": a document of a model is missing from the " +
+                                (recounted ? "recount" : "ledger") + " or does not decode");
     }
     QueueCounts& qc = out->queues[col->second];
     ++qc.documents;
@@ -388,8 +407,6 @@ Status Store::ModelAtVersion(int64_t v, VersionInfo* info, StoreSettings* settin
     out->counts.insert(out->counts.end(), sums.begin() + static_cast<ptrdiff_t>(r * nq),
                        sums.begin() + static_cast<ptrdiff_t>((r + 1) * nq));
   }
-  *info = state.info;
-  *settings = state.settings;
   return Status::Ok();
 }
 

@@ -96,6 +96,11 @@ def fault_points(binary, seed):
         case("forget.before_commit", "forget", *forget)
 
         case("rollback.before_commit", "rollback", "2")
+        # A rebuild stopped in a batch or in the swap leaves the model as it
+        # was; stopped after the swap (before its clean-up), the new one.
+        case("rebuild.batch_before_commit", "rebuild", "--bigrams", "on")
+        case("rebuild.swap_before_commit", "rebuild", "--numbers", "fold")
+        case("rebuild.before_cleanup", "rebuild", "--min-length", "2", after_commit=True)
 
         store_files = [os.path.join(tmp, "s.db" + s) for s in ("", "-wal", "-shm")]
 
