@@ -62,6 +62,7 @@ bench: bench-deps
 	cmake -S . -B $(BUILD_DIR) -DCMAKE_BUILD_TYPE=Release -DCHUTE_BENCH=ON $(CMAKE_EXTRA_FLAGS)
 	cmake --build $(BUILD_DIR) -j $(JOBS)
 	tests/bench/run.sh $(BUILD_DIR)
+	tests/bench/reviewer_loop.sh $(BUILD_DIR)
 
 # The reliability tests of make test (label "reliability") at their full
 # counts: 50 random kills; 120 corrections and 120 learns under four routers.
