@@ -39,6 +39,15 @@ Status RunSql(sqlite3* db, const std::string& path, const char* sql,
   return st.Run();
 }
 
+// A queue left with no documents, counts or prior, marked retired now.
+Status MarkRetired(sqlite3* db, const std::string& path, int64_t id, const ChangeInfo& change) {
+  sql::Statement st(db,
+                    "UPDATE queues SET documents = 0, tokens = 0, set_prior = NULL, retired = ? "
+                    "WHERE id = ?");
+  if (!st.ok()) return Status::IoError(path + ": " + st.error());
+  return st.Bind(1, change.now.empty() ? StoreClockNow() : change.now).Bind(2, id).Run();
+}
+
 }  // namespace
 
 Status Store::AddQueue(const std::string& name, const ChangeInfo& change) {
@@ -129,12 +138,7 @@ Status Store::MergeQueue(const std::string& from, const std::string& into,
                {f.id, f.id, t.id});
   }
   if (s.ok()) s = RunSql(db, path_, "UPDATE ledger SET queue_id = ? WHERE queue_id = ?", {t.id, f.id});
-  if (s.ok()) {
-    sql::Statement st(db,
-                      "UPDATE queues SET documents = 0, tokens = 0, set_prior = NULL, retired = ? "
-                      "WHERE id = ?");
-    s = st.Bind(1, change.now.empty() ? StoreClockNow() : change.now).Bind(2, f.id).Run();
-  }
+  if (s.ok()) s = MarkRetired(db, path_, f.id, change);
   if (s.ok()) s = RecordVersionInTransaction("queues", change, delta);
   if (!s.ok()) return s;
   *moved = delta.moved;
@@ -169,12 +173,7 @@ Status Store::RetireQueue(const std::string& name, const ChangeInfo& change, int
                "DELETE FROM terms WHERE NOT EXISTS (SELECT 1 FROM counts WHERE term_id = terms.id)",
                {});
   }
-  if (s.ok()) {
-    sql::Statement st(db,
-                      "UPDATE queues SET documents = 0, tokens = 0, set_prior = NULL, retired = ? "
-                      "WHERE id = ?");
-    s = st.Bind(1, change.now.empty() ? StoreClockNow() : change.now).Bind(2, q.id).Run();
-  }
+  if (s.ok()) s = MarkRetired(db, path_, q.id, change);
   if (s.ok()) s = RecordVersionInTransaction("queues", change, delta);
   if (!s.ok()) return s;
   *removed = delta.removed;
