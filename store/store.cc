@@ -204,9 +204,12 @@ Status Store::VocabularySize(int64_t* out) {
 
 Status Store::LoadModelCounts(ModelCounts* out, VersionInfo* version) {
   *out = ModelCounts();
-  // Read in one transaction so that queues and counts agree.
+  // Read in one transaction so that settings, queues and counts agree: a
+  // rebuild may have changed the settings since the store was opened, and
+  // counts must be read with the settings they were made with.
   sql::ReadTransaction read(db_.get());
   if (!read.status().ok()) return read.status();
+  if (Status s = LoadSettings(); !s.ok()) return s;
 
   std::unordered_map<int64_t, size_t> column;
   {
@@ -384,6 +387,18 @@ Status Store::QueueIdInTransaction(const std::string& name, const std::string& n
 Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now,
                                  LearnResult* result, VersionDelta* delta) {
   *result = LearnResult();
+  // The batch was tokenized with the settings read when the store was
+  // opened; a rebuild may have changed them since. Counts made under other
+  // settings must never mix with the store's.
+  if (!batch.empty()) {
+    const StoreSettings tokenized_with = settings_;
+    if (Status s = LoadSettings(); !s.ok()) return s;
+    if (!SameTokenizing(tokenized_with, settings_)) {
+      return Status::Busy(path_ +
+                          ": a rebuild changed the tokenizer settings while these documents "
+                          "were read; nothing was learned, run the command again");
+    }
+  }
   const auto& docs = batch.documents();
   sqlite3* db = db_.get();
   auto fail = [&](const Status& s) {

@@ -282,7 +282,9 @@ class Store {
   // The counts a Model is built from, queues ordered by name, terms in byte
   // order of their text (so the model does not depend on learning order).
   // With version, also the current version (read in the same snapshot).
-  // Retired queues are left out.
+  // Retired queues are left out. settings() is read again in the same
+  // snapshot, so that it is the settings these counts were made with even
+  // when a rebuild changed them after Open.
   Status LoadModelCounts(ModelCounts* out, VersionInfo* version = nullptr);
 
   // LoadModelCounts without terms and counts: the queues only.

@@ -136,6 +136,9 @@ Status Store::CurrentQueuesInTransaction(std::vector<VersionQueue>* out) {
 Status Store::RecordVersionInTransaction(const std::string& command, const ChangeInfo& change,
                                          const VersionDelta& delta, VersionInfo* made) {
   sqlite3* db = db_.get();
+  // The settings as this transaction sees them: another process (a
+  // rebuild) may have changed them since this one opened the store.
+  if (Status s = LoadSettings(); !s.ok()) return s;
   // The queues (and, unless a running sum was kept, every count).
   ModelCounts counts;
   Status s;
