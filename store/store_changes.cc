@@ -533,9 +533,6 @@ Status Store::Forget(const std::vector<std::string>& digests,
   return Status::Ok();
 }
 
-}  // namespace chute
-
-namespace chute {
 
 Status Store::Rollback(int64_t v, const ChangeInfo& change,
                        RollbackResult* result) {
