@@ -113,6 +113,50 @@ CREATE TABLE candidate (
   details      TEXT
 );
 )sql",
+    // 4: the decision log of routing into folders, unreadable files, and
+    // each queue's routing rules.
+    R"sql(
+CREATE TABLE decisions (
+  id                  INTEGER PRIMARY KEY,
+  digest              TEXT NOT NULL,
+  source              TEXT NOT NULL,
+  destination         TEXT NOT NULL,
+  queue               TEXT NOT NULL,
+  confidence          REAL NOT NULL,
+  runner_up           TEXT,
+  runner_up_posterior REAL,
+  held                TEXT CHECK (held IS NULL OR
+                        held IN ('threshold', 'no_terms', 'min_documents', 'audit')),
+  model_version       INTEGER NOT NULL,
+  time                TEXT NOT NULL,
+  by                  TEXT NOT NULL,
+  mode                TEXT NOT NULL CHECK (mode IN ('move', 'copy', 'link')),
+  delivered           INTEGER NOT NULL DEFAULT 0 CHECK (delivered IN (0, 1)),
+  terms               INTEGER NOT NULL DEFAULT 0 CHECK (terms >= 0),
+  unknown_terms       INTEGER NOT NULL DEFAULT 0 CHECK (unknown_terms >= 0),
+  review              TEXT CHECK (review IS NULL OR review IN ('moved', 'left')),
+  reviewed_queue      TEXT,
+  reviewed_path       TEXT,
+  reviewed_at         TEXT
+);
+CREATE INDEX decisions_by_digest ON decisions(digest);
+CREATE INDEX decisions_by_time ON decisions(time);
+CREATE INDEX decisions_by_destination ON decisions(destination);
+CREATE INDEX decisions_undelivered ON decisions(id) WHERE delivered = 0;
+CREATE TABLE unreadable (
+  path       TEXT PRIMARY KEY,
+  size       INTEGER NOT NULL,
+  mtime_ns   INTEGER NOT NULL,
+  digest     TEXT,
+  reason     TEXT NOT NULL,
+  first_seen TEXT NOT NULL,
+  set_aside  TEXT
+) WITHOUT ROWID;
+ALTER TABLE queues ADD COLUMN threshold REAL
+  CHECK (threshold IS NULL OR (threshold > 0 AND threshold <= 1));
+ALTER TABLE queues ADD COLUMN min_documents INTEGER
+  CHECK (min_documents IS NULL OR min_documents >= 0);
+)sql",
 };
 
 int UserVersion(sqlite3* db) {

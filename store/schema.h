@@ -62,6 +62,22 @@
 //             corrections ("ledger_id from_queue to_queue" lines, oldest
 //             first) and the figures of the last promotion the gate refused.
 //
+// Schema version 4 adds (store_decisions.cc, decision_log.h):
+//
+//   decisions One row per document routed into folders: its digest, where
+//             it was found and where it was put (absolute paths), the
+//             chosen queue (for a held document, the best guess), its
+//             confidence, the runner-up and its posterior, why it was held
+//             (NULL or threshold, no_terms, min_documents, audit), the model
+//             version, time (RFC 3339 UTC), by whom, the delivery mode,
+//             whether the delivery finished (0 while it is only intended),
+//             the document's terms and how many the model did not know, and
+//             the last review `correct --from-folders` learned from it.
+//   unreadable Files chute could not read, by absolute path, with the size,
+//             mtime and digest they had then, so that they are not retried
+//             until they change; where --set-aside moved them.
+//   queues.threshold, queues.min_documents  A queue's own routing rules.
+//
 // To change the schema: append a migration to kMigrations in schema.cc
 // (never edit a released one), which bumps SchemaVersion().
 // tests/store/schema_test.cc then builds a store of every older version,

@@ -18,6 +18,7 @@
 #include <vector>
 
 #include "classify/model_counts.h"
+#include "store/decision_log.h"
 #include "store/fingerprint.h"
 #include "store/learn_batch.h"
 #include "store/sqlite.h"
@@ -508,6 +509,51 @@ class Store {
   // YYYY-MM-DDTHH:MM:SSZ (then text order is time order); otherwise fails
   // with kInvalidArgument.
   Status Purge(const std::string& before, bool dry_run, PurgeResult* result);
+
+  // --- Routing into folders: the decision log (store_decisions.cc) ---
+  //
+  // Inserts the decisions with delivered = false in one transaction and
+  // sets each record's id. Call before delivering the files.
+  Status LogIntended(std::vector<DecisionRecord>* records);
+  // Changes the intended destination of an undelivered decision (the name
+  // was taken meanwhile and the delivery chose the next one).
+  Status SetDestination(int64_t id, const std::string& destination);
+  // Marks decisions delivered, in one transaction.
+  Status MarkDelivered(const std::vector<int64_t>& ids);
+  // Deletes undelivered decisions whose delivery did not happen (the
+  // source stayed where it was), in one transaction.
+  Status DropIntended(const std::vector<int64_t>& ids);
+  // Every undelivered decision, oldest first.
+  Status PendingDeliveries(std::vector<DecisionRecord>* out);
+  // The digests among `digests` that some delivered decision delivered
+  // with mode copy or link (so that --copy and --link skip them).
+  Status DeliveredCopies(const std::vector<std::string>& digests,
+                         std::vector<std::string>* delivered);
+  // Calls fn for each decision the query selects, oldest first (by time,
+  // then id), inside one read transaction. Stops at the first Status fn
+  // returns that is not Ok and returns it.
+  Status ReadDecisions(const DecisionQuery& query,
+                       const std::function<Status(const DecisionRecord&)>& fn);
+  // Learns `batch` (as Learn: a digest known under another queue is moved)
+  // and writes the review marks, in one transaction, as one version
+  // "correct". The marks say which decisions these documents came from.
+  Status LearnReviewed(const LearnBatch& batch, const std::vector<ReviewMark>& marks,
+                       const ChangeInfo& change, LearnResult* result);
+
+  // Unreadable files: remembered by path; Remember replaces an earlier row
+  // of the same path (the file changed). Find gives nullopt when unknown.
+  Status RememberUnreadable(const UnreadableFile& file);
+  Status FindUnreadable(const std::string& path, std::optional<UnreadableFile>* out);
+  Status ForgetUnreadable(const std::string& path);
+  Status ListUnreadable(std::vector<UnreadableFile>* out);
+
+  // Every queue's routing rules, by name (one short read, no counts).
+  Status QueuePolicies(std::vector<QueuePolicy>* out);
+  // Sets (or with nullopt clears) a queue's threshold, 0 < t <= 1, or its
+  // minimum of learned documents, >= 0. NotFound for an unknown queue.
+  // Not a change of the model: no version.
+  Status SetQueueThreshold(const std::string& queue, std::optional<double> threshold);
+  Status SetQueueMinDocuments(const std::string& queue, std::optional<int64_t> min_documents);
 
  private:
   Store(std::string path, sql::DbHandle db);
