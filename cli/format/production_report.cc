@@ -104,7 +104,8 @@ std::string PrecisionSentence(const std::string& queue, const DecisionCounts& c,
            std::to_string(c.audit_drawn) + " drawn): no precision.";
   }
   return "Of " + std::to_string(c.audit_reviewed) + " audited decisions " + where + ", " +
-         std::to_string(c.audit_correct) + " were right: precision " +
+         std::to_string(c.audit_correct) + (c.audit_correct == 1 ? " was" : " were") +
+         " right: precision " +
          FormatFixed(c.precision->estimate, 2) + ", between " + FormatFixed(c.precision->low, 2) +
          " and " + FormatFixed(c.precision->high, 2) + " with " + LevelWords(confidence) +
          " confidence.";

@@ -163,7 +163,7 @@ TEST_F(ReviewLogTest, EvaluateFromLogGivesAuditPrecisionWithItsInterval) {
   RunResult r = Chute({"evaluate", "--db", "s.db", "--from-log", "--json", "p.json", "--csv",
                        "p-csv", "--html", "p.html"});
   ASSERT_EQ(r.exit_code, 0) << r.err;
-  EXPECT_NE(r.out.find("Of 2 audited decisions for permits, 1 were right: precision 0.50"),
+  EXPECT_NE(r.out.find("Of 2 audited decisions for permits, 1 was right: precision 0.50"),
             std::string::npos)
       << r.out;
   const json j = json::parse(ReadBytes(dir_.path() + "/p.json"));
