@@ -38,6 +38,7 @@
 #include <string>
 #include <vector>
 
+#include "cli/deliver/folder_router.h"  // kReviewFolder
 #include "cli/read/document_reader.h"
 #include "store/decision_log.h"
 #include "store/learn_batch.h"
@@ -46,9 +47,6 @@
 #include "tokenize/tokenizer.h"
 
 namespace chute {
-
-// The review folder's name inside DEST.
-inline constexpr const char* kReviewFolder = "_review";
 
 struct FolderReviewOptions {
   // Learn documents left at their destination and decided at or before
