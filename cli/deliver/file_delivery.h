@@ -51,9 +51,21 @@ Status PrepareDestinationRoot(const std::string& root, bool create_root,
 Status ChooseDestination(const std::string& absolute_root, const std::string& folder,
                          const std::string& name, std::string* destination);
 
+// The n-th name Deliver tries for `name` (n >= 1): n = 1 is the name
+// itself; n >= 2 puts "-n" before the extension, the part from the last '.'
+// on ("report.pdf" -> "report-2.pdf", "a.tar.gz" -> "a.tar-2.gz"); a name
+// with no '.' or whose only '.' is its first byte (".notes") gets "-n" at
+// its end. When the result would be longer than name_max bytes, the part
+// before the extension is shortened (to at least one byte; else the whole
+// name is shortened and "-n" goes at its end), cutting between whole UTF-8
+// sequences when the name is valid UTF-8 and anywhere otherwise. Pure.
+std::string NumberedName(const std::string& name, int64_t n, size_t name_max);
+
 struct Delivered {
   std::string destination;  // absolute path the document now has
-  bool crossed_filesystems = false;  // bytes were copied (move across fs)
+  // A move whose bytes were copied: across filesystems, or forced onto the
+  // copy path by CHUTE_TEST_FORCE_COPY=1. False for --copy and --link.
+  bool crossed_filesystems = false;
 };
 
 // Delivers `source` (a regular file, not followed if it is a symbolic
