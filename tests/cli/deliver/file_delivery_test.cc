@@ -77,11 +77,20 @@ class ForceCopy {
   ~ForceCopy() { ::unsetenv("CHUTE_TEST_FORCE_COPY"); }
 };
 
+// Sets CHUTE_TEST_NO_RENAMEAT2=1 for its lifetime: the link() + unlink()
+// fallback of filesystems without RENAME_NOREPLACE.
+class NoRenameat2 {
+ public:
+  NoRenameat2() { ::setenv("CHUTE_TEST_NO_RENAMEAT2", "1", 1); }
+  ~NoRenameat2() { ::unsetenv("CHUTE_TEST_NO_RENAMEAT2"); }
+};
+
 // A fresh folder with inbox/ and routed/ (the destination root) in it.
 class FileDeliveryTest : public ::testing::Test {
  protected:
   void SetUp() override {
     ::unsetenv("CHUTE_TEST_FORCE_COPY");
+    ::unsetenv("CHUTE_TEST_NO_RENAMEAT2");
     std::string pattern = (fs::current_path() / "file_delivery_test.XXXXXX").string();
     ASSERT_NE(::mkdtemp(pattern.data()), nullptr);
     top_ = pattern;
@@ -342,6 +351,31 @@ TEST_F(FileDeliveryTest, ForcedCopyTakesTheCopyPathOnOneFilesystem) {
   EXPECT_FALSE(Exists(source));
   EXPECT_EQ(ReadFile(dest), "copied then removed");
   EXPECT_NE(Lstat(dest).st_ino, inode);  // new bytes, not a rename
+  EXPECT_FALSE(HasTemporary(root_ + "/permits"));
+}
+
+TEST_F(FileDeliveryTest, TheLinkFallbackNeverOverwritesEither) {
+  NoRenameat2 fallback;
+  fs::create_directory(root_ + "/permits");
+  WriteFile(root_ + "/permits/a.txt", "already here");
+  const std::string source = Inbox("a.txt", "moved by link and unlink");
+  const ino_t inode = Lstat(source).st_ino;
+  Delivered d;
+  EXPECT_EQ(DeliverInto(source, "permits", DeliveryMode::kMove, &d),
+            root_ + "/permits/a-2.txt");
+  EXPECT_FALSE(d.crossed_filesystems);
+  EXPECT_FALSE(Exists(source));
+  EXPECT_EQ(Lstat(root_ + "/permits/a-2.txt").st_ino, inode);
+  EXPECT_EQ(Lstat(root_ + "/permits/a-2.txt").st_nlink, 1u);
+  EXPECT_EQ(ReadFile(root_ + "/permits/a.txt"), "already here");
+
+  // The copy path's temporary file takes its name the same way.
+  ForceCopy force;
+  EXPECT_EQ(DeliverInto(Inbox("a.txt", "copied"), "permits", DeliveryMode::kMove, &d),
+            root_ + "/permits/a-3.txt");
+  EXPECT_TRUE(d.crossed_filesystems);
+  EXPECT_EQ(ReadFile(root_ + "/permits/a-3.txt"), "copied");
+  EXPECT_EQ(ReadFile(root_ + "/permits/a.txt"), "already here");
   EXPECT_FALSE(HasTemporary(root_ + "/permits"));
 }
 
