@@ -381,13 +381,24 @@ TEST_F(FileDeliveryTest, TheLinkFallbackNeverOverwritesEither) {
 
 // --- Across filesystems ---
 
-TEST_F(FileDeliveryTest, MoveAcrossFilesystemsCopiesAndRemovesTheSource) {
-  const std::string shm = ShmFolder();
-  if (shm.empty()) {
-    GTEST_SKIP() << "no second filesystem: /dev/shm is missing or on the same "
-                    "filesystem as the build folder";
+// The sources on /dev/shm (a tmpfs), the destination below the build
+// folder: two filesystems, asserted by their st_dev.
+class AcrossFilesystemsTest : public FileDeliveryTest {
+ protected:
+  void SetUp() override {
+    FileDeliveryTest::SetUp();
+    if (HasFatalFailure()) return;
+    shm = ShmFolder();
+    if (shm.empty()) {
+      GTEST_SKIP() << "no second filesystem: /dev/shm is missing or on the same "
+                      "filesystem as the build folder";
+    }
+    ASSERT_NE(Lstat(shm).st_dev, Lstat(root_).st_dev);
   }
-  ASSERT_NE(Lstat(shm).st_dev, Lstat(root_).st_dev);
+  std::string shm;
+};
+
+TEST_F(AcrossFilesystemsTest, MoveCopiesAndRemovesTheSource) {
 
   // 1 MiB + 17 bytes of seeded random bytes: more than one read buffer.
   std::mt19937 rng(20261202);
@@ -417,10 +428,7 @@ TEST_F(FileDeliveryTest, MoveAcrossFilesystemsCopiesAndRemovesTheSource) {
   EXPECT_FALSE(HasTemporary(root_ + "/permits"));
 }
 
-TEST_F(FileDeliveryTest, CopyAcrossFilesystemsKeepsTheSource) {
-  const std::string shm = ShmFolder();
-  if (shm.empty()) GTEST_SKIP() << "no second filesystem (/dev/shm)";
-  ASSERT_NE(Lstat(shm).st_dev, Lstat(root_).st_dev);
+TEST_F(AcrossFilesystemsTest, CopyKeepsTheSource) {
   const std::string source = shm + "/a.txt";
   WriteFile(source, "across");
   Delivered d;
@@ -430,10 +438,7 @@ TEST_F(FileDeliveryTest, CopyAcrossFilesystemsKeepsTheSource) {
   EXPECT_FALSE(d.crossed_filesystems);
 }
 
-TEST_F(FileDeliveryTest, LinkAcrossFilesystemsIsRefused) {
-  const std::string shm = ShmFolder();
-  if (shm.empty()) GTEST_SKIP() << "no second filesystem (/dev/shm)";
-  ASSERT_NE(Lstat(shm).st_dev, Lstat(root_).st_dev);
+TEST_F(AcrossFilesystemsTest, LinkIsRefused) {
   const std::string source = shm + "/a.txt";
   WriteFile(source, "stay");
   Delivered d;
