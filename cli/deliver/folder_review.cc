@@ -126,14 +126,18 @@ class Planner {
       if (!found[i]) unresolved.push_back(i);
     }
     // By name: the same file name in another folder, with the same content.
+    std::multimap<std::string, size_t> by_name;
+    for (size_t f = 0; f < files_.size(); ++f) {
+      if (!files_[f].claimed) by_name.emplace(files_[f].name, f);
+    }
     for (size_t i : unresolved) {
       const DecisionRecord& d = decisions_[i];
-      const std::string name = BaseName(KnownPlace(d));
-      for (FoundFile& f : files_) {
-        if (f.claimed || f.taken || f.name != name) continue;
-        if (DigestOf(&f) == d.digest) {
+      auto [begin, end] = by_name.equal_range(BaseName(KnownPlace(d)));
+      for (auto it = begin; it != end; ++it) {
+        FoundFile& f = files_[it->second];
+        if (!f.taken && DigestOf(&f) == d.digest) {
           f.taken = true;
-          found[i] = static_cast<size_t>(&f - files_.data());
+          found[i] = it->second;
           break;
         }
       }
