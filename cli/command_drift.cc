@@ -1,7 +1,6 @@
 // chute drift: is the intake changing? Per day, figures of the decision log
 // beside the model's and the period's (classify/drift.h).
 #include <CLI/CLI.hpp>
-#include <ctime>
 
 #include "classify/drift.h"
 #include "cli/command.h"
@@ -9,7 +8,6 @@
 #include "cli/exit_code.h"
 #include "cli/format/drift_report.h"
 #include "cli/logged_decisions.h"
-#include "cli/older_than.h"
 
 namespace chute {
 
@@ -25,17 +23,12 @@ struct DriftCommandOptions {
 };
 
 int RunDrift(const DriftCommandOptions& o) {
-  std::string since, why;
-  if (!ParseOlderThan(o.since, std::time(nullptr), &since, &why)) {
-    Report(kCommand, "--since: " + why);
-    return kExitUsage;
-  }
   std::unique_ptr<Store> store;
-  if (!OpenStoreOrReport(kCommand, o.db, &store)) return kExitFailed;
+  std::string since;
   std::vector<LoggedDecision> decisions;
-  if (Status s = ReadLoggedDecisions(store.get(), since, &decisions); !s.ok()) {
-    Report(kCommand, s.message());
-    return kExitFailed;
+  if (int rc = LoadDecisionLog(kCommand, o.db, o.since, &store, &since, &decisions);
+      rc != kExitDone) {
+    return rc;
   }
   ModelCounts counts;
   if (Status s = store->LoadQueueCounts(&counts); !s.ok()) {
@@ -44,11 +37,6 @@ int RunDrift(const DriftCommandOptions& o) {
   }
   std::vector<std::pair<std::string, int64_t>> ledger;
   for (const QueueCounts& q : counts.queues) ledger.emplace_back(q.name, q.documents);
-  if (decisions.empty()) {
-    Report(kCommand, o.db + ": no decision in the log since " + since +
-                         "; 'chute route --into' and 'chute watch' write it");
-    return kExitFailed;
-  }
   const DriftReport r = ComputeDrift(decisions, ledger, o.drift);
   switch (o.format) {
     case OutputFormat::kTable:

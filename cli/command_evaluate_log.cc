@@ -1,7 +1,5 @@
 // chute evaluate --from-log: per-queue precision from the audit sample of
 // the decision log, with the counts of what was held and reviewed.
-#include <ctime>
-
 #include "classify/production_figures.h"
 #include "cli/common_options.h"
 #include "cli/evaluate_from_log.h"
@@ -9,7 +7,6 @@
 #include "cli/format/production_report.h"
 #include "cli/format/report_files.h"
 #include "cli/logged_decisions.h"
-#include "cli/older_than.h"
 
 namespace chute {
 
@@ -25,26 +22,12 @@ std::string FileName(const std::string& path) {
 }  // namespace
 
 int RunEvaluateFromLog(const EvaluateFromLogOptions& o) {
-  std::string since;
-  if (!o.since.empty()) {
-    std::string why;
-    if (!ParseOlderThan(o.since, std::time(nullptr), &since, &why)) {
-      Report(kCommand, "--since: " + why);
-      return kExitUsage;
-    }
-  }
   std::unique_ptr<Store> store;
-  if (!OpenStoreOrReport(kCommand, o.db, &store)) return kExitFailed;
+  std::string since;
   std::vector<LoggedDecision> decisions;
-  if (Status s = ReadLoggedDecisions(store.get(), since, &decisions); !s.ok()) {
-    Report(kCommand, s.message());
-    return kExitFailed;
-  }
-  if (decisions.empty()) {
-    Report(kCommand, o.db + ": no decision in the log" +
-                         (since.empty() ? std::string() : " since " + since) +
-                         "; 'chute route --into' and 'chute watch' write it");
-    return kExitFailed;
+  if (int rc = LoadDecisionLog(kCommand, o.db, o.since, &store, &since, &decisions);
+      rc != kExitDone) {
+    return rc;
   }
   ProductionReport r;
   r.store = FileName(store->path());
