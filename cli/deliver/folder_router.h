@@ -53,7 +53,9 @@ struct RoutedDocument {
   enum class Outcome {
     kDelivered,     // record describes the decision (destination final)
     kWouldDeliver,  // dry run: record as it would be logged
-    kSkipped,       // --copy/--link: delivered before (reason says so)
+    kSkipped,       // --copy/--link: delivered before; or unreadable before
+                    // and unchanged since (not read again, not reported
+                    // again); the reason says which
     kUnreadable,    // reason; record.destination set when set aside
     kFailed,        // could not be delivered (reason); the file is untouched
   };
@@ -72,9 +74,14 @@ class FolderRouter {
  public:
   // Loads the current model and the queues' rules, prepares DEST, finishes
   // the deliveries an earlier run left unfinished (PendingDeliveries ->
-  // FinishPending) and removes its temporary files.
+  // FinishPending) and removes its temporary files. Each pending delivery
+  // is given to report (when set): kDelivered once finished (the reason
+  // says it was an earlier run's), kFailed when the document was found in
+  // neither place (its row is dropped) or could not be finished (its row
+  // stays for the next run). A dry run finishes nothing.
   static Status Open(Store* store, const FolderRouteOptions& options,
-                     std::unique_ptr<FolderRouter>* out, FolderRouteTally* tally);
+                     std::unique_ptr<FolderRouter>* out, FolderRouteTally* tally,
+                     const std::function<void(const RoutedDocument&)>& report = {});
 
   // Loads the model again when the store has a newer version; *reloaded
   // says whether it did. Cheap when nothing changed (one short read).
@@ -89,6 +96,8 @@ class FolderRouter {
 
   int64_t model_version() const;
   const std::string& fingerprint() const;
+  // DEST, absolute and symlink-free (as the log records destinations).
+  const std::string& root() const;
 
   ~FolderRouter();
 

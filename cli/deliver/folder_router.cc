@@ -1,0 +1,576 @@
+#include "cli/deliver/folder_router.h"
+
+#include <sys/stat.h>
+
+#include <cerrno>
+#include <cstring>
+#include <filesystem>
+#include <map>
+#include <mutex>
+#include <optional>
+#include <unordered_map>
+#include <unordered_set>
+#include <utility>
+
+#include "classify/model.h"
+#include "cli/common_options.h"
+#include "cli/deliver/file_delivery.h"
+#include "cli/parallel.h"
+#include "cli/read/document_reader.h"
+#include "tokenize/tokenizer.h"
+
+namespace chute {
+
+namespace {
+
+// SplitMix64's output function (G. L. Steele, D. Lea, C. H. Flood, "Fast
+// Splittable Pseudorandom Number Generators", OOPSLA 2014; the constants
+// as in S. Vigna's splitmix64.c, recalled from memory). Used as a hash
+// that spreads every input bit over the output.
+uint64_t SplitMix64(uint64_t x) {
+  x += 0x9e3779b97f4a7c15ULL;
+  x = (x ^ (x >> 30)) * 0xbf58476d1ce4e5b9ULL;
+  x = (x ^ (x >> 27)) * 0x94d049bb133111ebULL;
+  return x ^ (x >> 31);
+}
+
+// The first 8 bytes of a lowercase hex digest as a number (0 when the
+// digest is shorter or not hex: never for chute's own digests).
+uint64_t DigestPrefix(const std::string& digest) {
+  uint64_t v = 0;
+  for (size_t i = 0; i < 16 && i < digest.size(); ++i) {
+    const char c = digest[i];
+    const uint64_t d = c >= '0' && c <= '9'   ? static_cast<uint64_t>(c - '0')
+                       : c >= 'a' && c <= 'f' ? static_cast<uint64_t>(c - 'a' + 10)
+                                              : 0;
+    v = (v << 4) | d;
+  }
+  return v;
+}
+
+// Whether a document is drawn for the audit sample: a uniform number in
+// [0, 1) made from the seed and the document's digest is below the share.
+// The same seed and document always draw the same.
+bool DrawnForAudit(uint64_t seed, const std::string& digest, double share) {
+  if (share <= 0) return false;
+  const uint64_t h = SplitMix64(seed ^ SplitMix64(DigestPrefix(digest)));
+  const double u = static_cast<double>(h >> 11) * 0x1.0p-53;  // 53 random bits
+  return u < share;
+}
+
+std::string BaseName(const std::string& path) {
+  std::string p = path;
+  while (p.size() > 1 && p.back() == '/') p.pop_back();
+  const size_t slash = p.rfind('/');
+  return slash == std::string::npos ? p : p.substr(slash + 1);
+}
+
+// One input's work, done by the reading threads (no store access there).
+struct Slot {
+  std::string absolute;  // the source, absolute (lexical)
+  // From lstat before reading: what an unreadable file is remembered by.
+  bool stat_ok = false;
+  int stat_errno = 0;
+  bool regular = false, symlink = false;
+  int64_t size = 0, mtime_ns = 0;
+  // Remembered as unreadable before and unchanged since: not read.
+  std::optional<UnreadableFile> known_unreadable;
+  bool was_unreadable = false;  // remembered before (changed since)
+  bool read = false;            // ReadDocument was called
+  Status status;
+  Document doc;
+  std::vector<std::string> terms;
+  DocumentRows rows;
+  int64_t unknown = 0;
+  Decision decision;
+};
+
+}  // namespace
+
+struct FolderRouter::State {
+  Store* store = nullptr;
+  FolderRouteOptions options;
+  std::string root;  // DEST, absolute and symlink-free
+  std::optional<Model> model;
+  VersionInfo version;
+  StoreSettings settings;
+  std::unordered_map<std::string, QueuePolicy> policies;  // by queue name
+  std::vector<std::unique_ptr<Tokenizer>> tokenizers;     // one per worker
+  // Unreadable files by absolute path, read once at Open and kept up to
+  // date by this router; the reading threads look up, the store thread
+  // writes, under the mutex.
+  std::mutex unreadable_mutex;
+  std::unordered_map<std::string, UnreadableFile> unreadable;
+  // Destinations chosen in this router's Route calls but perhaps not yet
+  // made: two documents of the same name never aim at one path.
+  std::unordered_set<std::string> claimed;
+
+  Status LoadModel();
+  Status LoadPolicies();
+  Status FinishPending(FolderRouteTally* tally,
+                       const std::function<void(const RoutedDocument&)>& report);
+  Status Choose(const std::string& folder, const std::string& name, std::string* dest);
+  void Prepare(const InputFile& f, Slot* slot, size_t worker);
+  HeldReason Hold(const Decision& d) const;
+};
+
+Status FolderRouter::State::LoadModel() {
+  ModelCounts counts;
+  VersionInfo v;
+  if (Status s = store->LoadModelCounts(&counts, &v); !s.ok()) return s;
+  StoreSettings st = store->settings();
+  Model m = Model::Build(counts, st.model);
+  if (m.queue_count() == 0) {
+    return Status::InvalidArgument(store->path() +
+                                   ": has learned no documents yet; run 'chute learn' first");
+  }
+  model.emplace(std::move(m));
+  version = v;
+  settings = st;
+  tokenizers.clear();
+  const size_t threads = std::max<size_t>(1, options.threads);
+  for (size_t w = 0; w < threads; ++w) {
+    tokenizers.push_back(std::make_unique<Tokenizer>(settings.tokenizer));
+  }
+  return Status::Ok();
+}
+
+Status FolderRouter::State::LoadPolicies() {
+  std::vector<QueuePolicy> list;
+  if (Status s = store->QueuePolicies(&list); !s.ok()) return s;
+  policies.clear();
+  for (QueuePolicy& p : list) policies.emplace(p.name, std::move(p));
+  return Status::Ok();
+}
+
+Status FolderRouter::State::Choose(const std::string& folder, const std::string& name,
+                                   std::string* dest) {
+  if (Status s = ChooseDestination(root, folder, name, dest); !s.ok()) return s;
+  // Another document of this window already aims at that name: the next
+  // numbered names, as Deliver would try them (NAME_MAX 255 bytes: Linux's
+  // file systems; recalled from memory).
+  for (int64_t n = 2; claimed.count(*dest) > 0; ++n) {
+    const std::string numbered = NumberedName(name, n, 255);
+    if (numbered.empty()) break;  // names ran out: Deliver picks a free one
+    if (Status s = ChooseDestination(root, folder, numbered, dest); !s.ok()) return s;
+  }
+  claimed.insert(*dest);
+  return Status::Ok();
+}
+
+void FolderRouter::State::Prepare(const InputFile& f, Slot* slot, size_t worker) {
+  *slot = Slot();
+  slot->absolute = SourcePath(f.path);
+  struct stat st;
+  if (::lstat(f.path.c_str(), &st) != 0) {
+    slot->stat_errno = errno;
+    return;
+  }
+  slot->stat_ok = true;
+  slot->regular = S_ISREG(st.st_mode);
+  slot->symlink = S_ISLNK(st.st_mode);
+  slot->size = static_cast<int64_t>(st.st_size);
+  slot->mtime_ns = static_cast<int64_t>(st.st_mtim.tv_sec) * 1000000000 + st.st_mtim.tv_nsec;
+  if (!slot->regular) return;
+  {
+    std::lock_guard<std::mutex> lock(unreadable_mutex);
+    auto it = unreadable.find(slot->absolute);
+    if (it != unreadable.end()) {
+      if (it->second.size == slot->size && it->second.mtime_ns == slot->mtime_ns &&
+          it->second.set_aside.empty()) {
+        slot->known_unreadable = it->second;
+        return;
+      }
+      slot->was_unreadable = true;
+    }
+  }
+  slot->read = true;
+  slot->status = ReadDocument(f.path, ReadOptions{options.max_bytes}, &slot->doc);
+  if (!slot->status.ok()) return;
+  tokenizers[worker]->Tokenize(slot->doc.text, &slot->terms);
+  model->ToRows(slot->terms, &slot->rows, &slot->unknown);
+  slot->decision = model->Decide(slot->rows, slot->unknown);
+}
+
+HeldReason FolderRouter::State::Hold(const Decision& d) const {
+  if (d.no_terms()) return HeldReason::kNoTerms;
+  const QueueCounts& q = model->queues()[d.ranked.front().queue];
+  std::optional<double> threshold = options.hold_below;
+  auto it = policies.find(q.name);
+  if (it != policies.end()) {
+    if (it->second.min_documents && q.documents < *it->second.min_documents) {
+      return HeldReason::kMinDocuments;
+    }
+    if (!threshold) threshold = it->second.threshold;
+  }
+  if (threshold && d.ranked.front().posterior < *threshold) return HeldReason::kThreshold;
+  return HeldReason::kNone;
+}
+
+Status FolderRouter::State::FinishPending(
+    FolderRouteTally* tally, const std::function<void(const RoutedDocument&)>& report) {
+  std::vector<DecisionRecord> pending;
+  if (Status s = store->PendingDeliveries(&pending); !s.ok()) return s;
+  std::vector<int64_t> done, lost;
+  std::vector<RoutedDocument> reports;
+  for (DecisionRecord& r : pending) {
+    RoutedDocument doc;
+    doc.path = r.source;
+    PendingState state = PendingState::kNotStarted;
+    Delivered out;
+    Status s = chute::FinishPending(r.source, r.destination, r.mode, r.digest, &state, &out);
+    if (!s.ok()) {
+      doc.outcome = RoutedDocument::Outcome::kFailed;
+      doc.reason = "could not finish the delivery an earlier run began (to " + r.destination +
+                   "): " + s.message() + "; tried again on the next run";
+      ++tally->failed;
+    } else if (state == PendingState::kLost) {
+      doc.outcome = RoutedDocument::Outcome::kFailed;
+      doc.reason = "an earlier run's delivery to " + r.destination +
+                   " was found in neither place: moved or deleted by someone else; its log row "
+                   "is dropped";
+      lost.push_back(r.id);
+      ++tally->failed;
+    } else {
+      if (!out.destination.empty() && out.destination != r.destination) {
+        if (Status d = store->SetDestination(r.id, out.destination); !d.ok()) return d;
+        r.destination = out.destination;
+      }
+      r.delivered = true;
+      doc.outcome = RoutedDocument::Outcome::kDelivered;
+      doc.reason = "finished the delivery an earlier run began";
+      done.push_back(r.id);
+      ++tally->finished_pending;
+    }
+    doc.record = std::move(r);
+    reports.push_back(std::move(doc));
+  }
+  if (!done.empty()) {
+    if (Status s = store->MarkDelivered(done); !s.ok()) return s;
+  }
+  if (!lost.empty()) {
+    if (Status s = store->DropIntended(lost); !s.ok()) return s;
+  }
+  if (report) {
+    for (const RoutedDocument& d : reports) report(d);
+  }
+  return Status::Ok();
+}
+
+FolderRouter::FolderRouter() : state_(std::make_unique<State>()) {}
+FolderRouter::~FolderRouter() = default;
+
+int64_t FolderRouter::model_version() const { return state_->version.version; }
+const std::string& FolderRouter::fingerprint() const { return state_->version.fingerprint; }
+const std::string& FolderRouter::root() const { return state_->root; }
+
+Status FolderRouter::Open(Store* store, const FolderRouteOptions& options,
+                          std::unique_ptr<FolderRouter>* out, FolderRouteTally* tally,
+                          const std::function<void(const RoutedDocument&)>& report) {
+  if (!(options.audit_share >= 0 && options.audit_share <= 1)) {
+    return Status::InvalidArgument("the audit share must lie between 0 and 1");
+  }
+  if (options.hold_below && !(*options.hold_below >= 0 && *options.hold_below <= 1)) {
+    return Status::InvalidArgument("the threshold must lie between 0 and 1");
+  }
+  std::unique_ptr<FolderRouter> router(new FolderRouter());
+  State& st = *router->state_;
+  st.store = store;
+  st.options = options;
+  if (options.dry_run) {
+    // A dry run creates nothing: a DEST that does not exist yet is shown
+    // where it would be.
+    std::error_code ec;
+    if (std::filesystem::exists(options.into, ec)) {
+      if (Status s = PrepareDestinationRoot(options.into, false, &st.root); !s.ok()) return s;
+    } else {
+      st.root = SourcePath(options.into);
+    }
+  } else if (Status s = PrepareDestinationRoot(options.into, true, &st.root); !s.ok()) {
+    return s;
+  }
+  if (Status s = st.LoadModel(); !s.ok()) return s;
+  if (Status s = st.LoadPolicies(); !s.ok()) return s;
+  std::vector<UnreadableFile> unreadable;
+  if (Status s = store->ListUnreadable(&unreadable); !s.ok()) return s;
+  for (UnreadableFile& u : unreadable) st.unreadable.emplace(u.path, std::move(u));
+  if (!options.dry_run) {
+    if (Status s = st.FinishPending(tally, report); !s.ok()) return s;
+    int64_t removed = 0;
+    if (Status s = CleanTemporaryFiles(st.root, &removed); !s.ok()) return s;
+  }
+  *out = std::move(router);
+  return Status::Ok();
+}
+
+Status FolderRouter::ReloadIfChanged(bool* reloaded) {
+  *reloaded = false;
+  VersionInfo now;
+  if (Status s = state_->store->CurrentVersion(&now); !s.ok()) return s;
+  // Thresholds and minimums are not versions: read them every time.
+  if (Status s = state_->LoadPolicies(); !s.ok()) return s;
+  if (now.version == state_->version.version && now.fingerprint == state_->version.fingerprint) {
+    return Status::Ok();
+  }
+  if (Status s = state_->LoadModel(); !s.ok()) return s;
+  *reloaded = true;
+  return Status::Ok();
+}
+
+Status FolderRouter::Route(const std::vector<InputFile>& files,
+                           const std::function<void(const RoutedDocument&)>& report,
+                           FolderRouteTally* tally) {
+  State& st = *state_;
+  const FolderRouteOptions& o = st.options;
+  using Outcome = RoutedDocument::Outcome;
+  std::vector<Slot> windows[2] = {std::vector<Slot>(kParallelWindow),
+                                  std::vector<Slot>(kParallelWindow)};
+  const size_t threads = st.tokenizers.size();
+  // Digests delivered by copy or link in this call (the store answers for
+  // earlier ones).
+  std::unordered_set<std::string> copied;
+  Status failure;
+  st.claimed.clear();
+
+  auto fill = [&](size_t start, size_t count, int buffer) {
+    ParallelFor(count, threads, [&, start, buffer](size_t i, size_t worker) {
+      st.Prepare(files[start + i], &windows[buffer][i], worker);
+    });
+  };
+
+  auto consume = [&](size_t start, size_t count, int buffer) -> bool {
+    std::vector<Slot>& window = windows[buffer];
+    std::vector<RoutedDocument> docs(count);
+    const std::string now = NowRfc3339();
+    // Digests to ask the store about (--copy/--link without --again).
+    std::vector<std::string> digests;
+    for (size_t i = 0; i < count; ++i) {
+      if (window[i].read && window[i].status.ok()) digests.push_back(window[i].doc.digest);
+    }
+    std::unordered_set<std::string> delivered_before;
+    if (o.mode != DeliveryMode::kMove && !o.again && !digests.empty()) {
+      std::vector<std::string> found;
+      if (Status s = st.store->DeliveredCopies(digests, &found); !s.ok()) {
+        failure = s;
+        return false;
+      }
+      delivered_before.insert(found.begin(), found.end());
+    }
+
+    std::vector<size_t> to_deliver;          // indices into docs
+    std::vector<size_t> unreadable_docs;     // read failed: remember (and set aside)
+    for (size_t i = 0; i < count; ++i) {
+      const InputFile& f = files[start + i];
+      Slot& slot = window[i];
+      RoutedDocument& d = docs[i];
+      d.path = f.path;
+      d.record.source = slot.absolute;
+      if (!slot.stat_ok) {
+        d.outcome = Outcome::kFailed;
+        d.reason = std::strerror(slot.stat_errno);
+        continue;
+      }
+      if (slot.symlink) {
+        d.outcome = Outcome::kFailed;
+        d.reason = "a symbolic link; chute delivers only regular files and never follows links";
+        continue;
+      }
+      if (!slot.regular) {
+        d.outcome = Outcome::kFailed;
+        d.reason = "not a regular file";
+        continue;
+      }
+      if (slot.known_unreadable && !o.set_aside) {
+        d.outcome = Outcome::kSkipped;
+        d.reason = "unreadable (" + slot.known_unreadable->reason + "), unchanged since " +
+                   slot.known_unreadable->first_seen;
+        continue;
+      }
+      if (slot.known_unreadable) {  // remembered earlier; now set aside
+        d.outcome = Outcome::kUnreadable;
+        d.reason = slot.known_unreadable->reason;
+        unreadable_docs.push_back(i);
+        continue;
+      }
+      if (!slot.status.ok()) {
+        d.outcome = Outcome::kUnreadable;
+        d.reason = ReasonOf(slot.status, f.path);
+        unreadable_docs.push_back(i);
+        continue;
+      }
+      const Decision& dec = slot.decision;
+      const Model& model = *st.model;
+      DecisionRecord& r = d.record;
+      r.digest = slot.doc.digest;
+      r.queue = model.queues()[dec.ranked.front().queue].name;
+      r.confidence = dec.ranked.front().posterior;
+      if (dec.ranked.size() > 1) {
+        r.runner_up = model.queues()[dec.ranked[1].queue].name;
+        r.runner_up_posterior = dec.ranked[1].posterior;
+      }
+      r.held = st.Hold(dec);
+      if (r.held == HeldReason::kNone && DrawnForAudit(o.audit_seed, r.digest, o.audit_share)) {
+        r.held = HeldReason::kAudit;
+      }
+      r.model_version = st.version.version;
+      r.time = now;
+      r.by = o.by;
+      r.mode = o.mode;
+      r.terms = static_cast<int64_t>(slot.terms.size());
+      r.unknown_terms = slot.unknown;
+      if (slot.doc.replaced > 0) {
+        d.reason = std::to_string(slot.doc.replaced) + " invalid UTF-8 sequences replaced by U+FFFD";
+      }
+      if (o.mode != DeliveryMode::kMove && !o.again &&
+          (delivered_before.count(r.digest) > 0 || copied.count(r.digest) > 0)) {
+        d.outcome = Outcome::kSkipped;
+        d.reason = std::string("delivered before (by ") + std::string(DeliveryModeName(o.mode)) +
+                   "); --again delivers it again";
+        continue;
+      }
+      const std::string folder = r.held == HeldReason::kNone ? r.queue : kReviewFolder;
+      if (Status s = st.Choose(folder, BaseName(f.path), &r.destination); !s.ok()) {
+        d.outcome = Outcome::kFailed;
+        d.reason = s.message();
+        continue;
+      }
+      if (o.mode != DeliveryMode::kMove) copied.insert(r.digest);
+      d.outcome = o.dry_run ? Outcome::kWouldDeliver : Outcome::kDelivered;
+      to_deliver.push_back(i);
+    }
+
+    if (!o.dry_run && !to_deliver.empty()) {
+      // The intended destinations are committed before any file moves.
+      std::vector<DecisionRecord> records;
+      records.reserve(to_deliver.size());
+      for (size_t i : to_deliver) records.push_back(docs[i].record);
+      if (Status s = st.store->LogIntended(&records); !s.ok()) {
+        failure = s;
+        return false;
+      }
+      std::vector<int64_t> delivered, dropped;
+      for (size_t k = 0; k < to_deliver.size(); ++k) {
+        RoutedDocument& d = docs[to_deliver[k]];
+        d.record.id = records[k].id;
+        Delivered out;
+        Status s = Deliver(d.record.source, d.record.destination, o.mode, &out);
+        if (!s.ok()) {
+          d.outcome = Outcome::kFailed;
+          d.reason = s.message();
+          dropped.push_back(d.record.id);
+          copied.erase(d.record.digest);
+          continue;
+        }
+        if (out.destination != d.record.destination) {
+          if (Status u = st.store->SetDestination(d.record.id, out.destination); !u.ok()) {
+            failure = u;
+            return false;
+          }
+          d.record.destination = out.destination;
+        }
+        d.record.delivered = true;
+        delivered.push_back(d.record.id);
+      }
+      if (!delivered.empty()) {
+        if (Status s = st.store->MarkDelivered(delivered); !s.ok()) {
+          failure = s;
+          return false;
+        }
+      }
+      if (!dropped.empty()) {
+        if (Status s = st.store->DropIntended(dropped); !s.ok()) {
+          failure = s;
+          return false;
+        }
+      }
+      // A file remembered as unreadable that now was read is forgotten.
+      for (size_t i : to_deliver) {
+        if (window[i].was_unreadable && docs[i].outcome == Outcome::kDelivered) {
+          if (Status s = st.store->ForgetUnreadable(window[i].absolute); !s.ok()) {
+            failure = s;
+            return false;
+          }
+          std::lock_guard<std::mutex> lock(st.unreadable_mutex);
+          st.unreadable.erase(window[i].absolute);
+        }
+      }
+    }
+
+    // Unreadable documents: remembered (so that they are not read again
+    // until they change) and, with set_aside, moved to DEST/_unreadable/.
+    for (size_t i : unreadable_docs) {
+      Slot& slot = window[i];
+      RoutedDocument& d = docs[i];
+      UnreadableFile u;
+      u.path = slot.absolute;
+      u.size = slot.size;
+      u.mtime_ns = slot.mtime_ns;
+      u.digest = slot.doc.digest;  // empty unless the reader got that far
+      u.reason = d.reason;
+      u.first_seen = now;
+      if (slot.known_unreadable) {
+        u.digest = slot.known_unreadable->digest;
+        u.first_seen = slot.known_unreadable->first_seen;
+      }
+      if (o.set_aside) {
+        std::string wanted;
+        Status s = st.Choose(kUnreadableFolder, BaseName(files[start + i].path), &wanted);
+        if (s.ok()) {
+          d.record.destination = wanted;
+          if (!o.dry_run) {
+            Delivered out;
+            s = Deliver(slot.absolute, wanted, DeliveryMode::kMove, &out);
+            if (s.ok()) {
+              d.record.destination = out.destination;
+              u.set_aside = out.destination;
+            }
+          }
+        }
+        if (!s.ok()) {
+          d.record.destination.clear();
+          d.reason += "; could not be set aside: " + s.message();
+        }
+      }
+      if (o.dry_run) continue;
+      if (Status s = st.store->RememberUnreadable(u); !s.ok()) {
+        failure = s;
+        return false;
+      }
+      std::lock_guard<std::mutex> lock(st.unreadable_mutex);
+      st.unreadable[u.path] = u;
+    }
+
+    // Once delivered, the files themselves hold their names; a dry run
+    // made none, so its names stay claimed for the whole call.
+    if (!o.dry_run) st.claimed.clear();
+    for (const RoutedDocument& d : docs) {
+      switch (d.outcome) {
+        case Outcome::kDelivered:
+        case Outcome::kWouldDeliver:
+          ++tally->delivered;
+          if (d.record.held == HeldReason::kAudit) {
+            ++tally->audit;
+          } else if (d.record.held != HeldReason::kNone) {
+            ++tally->held;
+          }
+          break;
+        case Outcome::kSkipped:
+          ++tally->skipped;
+          break;
+        case Outcome::kUnreadable:
+          ++tally->unreadable;
+          break;
+        case Outcome::kFailed:
+          ++tally->failed;
+          break;
+      }
+      if (report) report(d);
+    }
+    return true;
+  };
+
+  PipelineWindows(files.size(), fill, consume);
+  return failure;
+}
+
+}  // namespace chute
