@@ -91,6 +91,7 @@ struct FolderRouter::State {
   Store* store = nullptr;
   FolderRouteOptions options;
   std::string root;  // DEST, absolute and symlink-free
+  bool root_missing = false;  // a dry run into a DEST not made yet
   std::optional<Model> model;
   VersionInfo version;
   StoreSettings settings;
@@ -145,6 +146,16 @@ Status FolderRouter::State::LoadPolicies() {
 
 Status FolderRouter::State::Choose(const std::string& folder, const std::string& name,
                                    std::string* dest) {
+  if (root_missing) {
+    // A dry run into a DEST that does not exist yet: every name is free
+    // but the ones this run already gave.
+    for (int64_t n = 1;; ++n) {
+      const std::string numbered = NumberedName(name, n, 255);
+      if (numbered.empty()) return Status::InvalidArgument(name + ": no free name");
+      *dest = root + "/" + folder + "/" + numbered;
+      if (claimed.insert(*dest).second) return Status::Ok();
+    }
+  }
   if (Status s = ChooseDestination(root, folder, name, dest); !s.ok()) return s;
   // Another document of this window already aims at that name: the next
   // numbered names, as Deliver would try them (NAME_MAX 255 bytes: Linux's
@@ -285,6 +296,7 @@ Status FolderRouter::Open(Store* store, const FolderRouteOptions& options,
       if (Status s = PrepareDestinationRoot(options.into, false, &st.root); !s.ok()) return s;
     } else {
       st.root = SourcePath(options.into);
+      st.root_missing = true;
     }
   } else if (Status s = PrepareDestinationRoot(options.into, true, &st.root); !s.ok()) {
     return s;
