@@ -131,9 +131,8 @@ int RunRouteInto(const RouteOptions& o) {
                      {"runner-up"},
                      {"its posterior", TableWriter::Align::kRight},
                      {"held"},
-                     {"now at (below " + o.into + ")"}});
+                     {(o.dry_run ? "would go to (below " : "now at (below ") + o.into + ")"}});
   if (o.format == OutputFormat::kCsv) Print(DecisionCsvHeader());
-  std::string out;
   auto report = [&](const RoutedDocument& d) {
     using Outcome = RoutedDocument::Outcome;
     switch (d.outcome) {
@@ -142,9 +141,9 @@ int RunRouteInto(const RouteOptions& o) {
         if (!d.reason.empty()) Report("route", d.path + ": " + d.reason);
         const DecisionRecord& r = d.record;
         if (o.format == OutputFormat::kJsonl) {
-          out += DecisionJsonLine(r);
+          Print(DecisionJsonLine(r));
         } else if (o.format == OutputFormat::kCsv) {
-          out += DecisionCsvLine(r);
+          Print(DecisionCsvLine(r));
         } else {
           table.AddRow({d.path, r.queue, FormatFixed(r.confidence, 3), r.runner_up,
                         r.runner_up_posterior ? FormatFixed(*r.runner_up_posterior, 3) : "",
@@ -186,7 +185,6 @@ int RunRouteInto(const RouteOptions& o) {
     }
     s = router->Route(files, report, &tally);
   }
-  Print(out);
   if (!s.ok()) {
     Report("route", s.message());
     return kExitFailed;

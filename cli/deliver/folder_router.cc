@@ -305,7 +305,17 @@ Status FolderRouter::Open(Store* store, const FolderRouteOptions& options,
   if (Status s = st.LoadPolicies(); !s.ok()) return s;
   std::vector<UnreadableFile> unreadable;
   if (Status s = store->ListUnreadable(&unreadable); !s.ok()) return s;
-  for (UnreadableFile& u : unreadable) st.unreadable.emplace(u.path, std::move(u));
+  for (UnreadableFile& u : unreadable) {
+    // A remembered file that someone has since removed is forgotten (one
+    // set aside keeps its row: where it went).
+    struct stat gone;
+    if (!options.dry_run && u.set_aside.empty() && ::lstat(u.path.c_str(), &gone) != 0 &&
+        errno == ENOENT) {
+      if (Status s = store->ForgetUnreadable(u.path); !s.ok()) return s;
+      continue;
+    }
+    st.unreadable.emplace(u.path, std::move(u));
+  }
   if (!options.dry_run) {
     if (Status s = st.FinishPending(tally, report); !s.ok()) return s;
     int64_t removed = 0;

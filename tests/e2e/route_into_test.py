@@ -17,6 +17,7 @@ import hashlib
 import io
 import json
 import os
+import sqlite3
 import subprocess
 import sys
 import tempfile
@@ -346,6 +347,25 @@ class RouteIntoTest(unittest.TestCase):
         rows, _ = self.route("--move")
         self.assertEqual(len(rows), 1)
         self.assertEqual(rows[0]["queue"], "billing")
+        # The store remembers only the one set aside now; a remembered file
+        # someone removed is forgotten by the next run.
+        self.assertEqual(self.unreadable_rows(), [(os.path.abspath(self.path("inbox")) +
+                                                   "/scan.bin", 1)])
+        self.write("inbox/scan3.bin", b"\x00y")
+        self.route("--move", expect=3)
+        self.assertEqual(len(self.unreadable_rows()), 2)
+        os.remove(self.path("inbox/scan3.bin"))
+        self.route("--move")
+        self.assertEqual(len(self.unreadable_rows()), 1)
+
+    def unreadable_rows(self):
+        """(path, set aside?) of the store's unreadable table (read-only)."""
+        db = sqlite3.connect("file:%s?mode=ro" % self.path("s.db"), uri=True)
+        try:
+            return [(p, int(a is not None)) for p, a in
+                    db.execute("SELECT path, set_aside FROM unreadable ORDER BY path")]
+        finally:
+            db.close()
 
     def test_too_large_is_unreadable_and_set_aside_in_a_dry_run_moves_nothing(self):
         big = self.write("inbox/big.txt", BILLING * 100)
