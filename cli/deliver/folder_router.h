@@ -23,6 +23,7 @@
 #include <string>
 #include <vector>
 
+#include "cli/read/document_reader.h"
 #include "cli/read/input_walker.h"
 #include "store/decision_log.h"
 #include "store/status.h"
@@ -45,7 +46,7 @@ struct FolderRouteOptions {
   uint64_t audit_seed = 0;
   std::string by;
   size_t threads = 1;
-  int64_t max_bytes = 0;  // cli/read/document_reader.h
+  int64_t max_bytes = kDefaultMaxBytes;  // larger documents are unreadable
 };
 
 // What happened to one input.
