@@ -389,7 +389,8 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
       d.record.source = slot.absolute;
       if (!slot.stat_ok) {
         d.outcome = Outcome::kFailed;
-        d.reason = std::strerror(slot.stat_errno);
+        d.reason = slot.stat_errno == ENOENT ? "no longer there (moved or deleted meanwhile)"
+                                             : std::strerror(slot.stat_errno);
         continue;
       }
       if (slot.symlink) {
@@ -478,7 +479,7 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
         Status s = Deliver(d.record.source, d.record.destination, o.mode, &out);
         if (!s.ok()) {
           d.outcome = Outcome::kFailed;
-          d.reason = s.message();
+          d.reason = ReasonOf(s, d.record.source);
           dropped.push_back(d.record.id);
           copied.erase(d.record.digest);
           continue;
