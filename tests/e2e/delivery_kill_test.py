@@ -15,11 +15,12 @@ After each kill:
   - every document's bytes (by SHA-256) are in the inbox, under its own
     path, or in exactly one file below dest, or in both; never in neither;
   - no file below dest under a real name (not chute's .chute-tmp-*
-    temporary files) is truncated or anything but one of the documents.
-Then a rerun must exit 0, leave the inbox empty, every document in exactly
-one file below dest, `chute log` must hold exactly one delivered decision
-per document whose destination is where the document is, and `chute
-check` must pass.
+    temporary files) is truncated or anything but one of the documents;
+  - every decision the log marks delivered names a file that holds it.
+Then a rerun must exit 0, leave the inbox empty and no temporary file,
+every document in exactly one file below dest, `chute log` must hold
+exactly one delivered decision per document whose destination is where
+the document is, and `chute check` must pass.
 
 Runs alternate between three kinds: inbox and dest on one filesystem;
 dest on another (/dev/shm, a tmpfs; the st_dev of the two are asserted to
@@ -156,6 +157,18 @@ def places_for(kind, work, run):
     return inbox, dest
 
 
+def check_logged_where_they_are(what, chute, db):
+    """A decision is marked delivered only once its file is in place."""
+    for r in log_rows(chute, db):
+        try:
+            with open(r["destination"], "rb") as f:
+                ok = sha256(f.read()) == r["digest"]
+        except OSError:
+            ok = False
+        expect(ok, "%s: the log says %s was delivered to %s, which does not hold it" % (
+            what, r["source"], r["destination"]))
+
+
 def log_rows(chute, db):
     p = chute.run("log", "--format", "jsonl", db=db)
     return [json.loads(line) for line in p.stdout.splitlines()]
@@ -179,10 +192,13 @@ def one_run(runner, kind, run, rng, expected_seconds, landed):
                 landed["finished first"] += 1
                 expect(code == 0, "%s: exit %d: %s" % (what, code, err))
             check_nothing_lost(what, inbox, dest, documents)
+            check_logged_where_they_are(what, chute, db)
         what = "run %d (%s), the rerun" % (run, kind)
         p = runner.run(kind, db, inbox, dest)
         expect(p.returncode == 0, "%s: exit %d: %s" % (what, p.returncode, p.stderr))
         in_dest = check_nothing_lost(what, inbox, dest, documents)
+        temporary = [p for p in files_below(dest) if os.path.basename(p).startswith(".chute-tmp-")]
+        expect(not temporary, "%s: temporary files left: %s" % (what, temporary[:3]))
         left = [rel for rel in documents if os.path.exists(os.path.join(inbox, rel))]
         expect(not left, "%s: %d documents left in the inbox, such as %s" % (
             what, len(left), left[:3]))
