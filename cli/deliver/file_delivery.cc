@@ -114,8 +114,9 @@ size_t CutLength(std::string_view s, size_t max, bool utf8) {
   return cut;
 }
 
-bool ForceCopy() {
-  const char* v = std::getenv("CHUTE_TEST_FORCE_COPY");
+// True when the test-only environment variable is set to "1".
+bool TestSwitch(const char* name) {
+  const char* v = std::getenv(name);
   return v != nullptr && std::strcmp(v, "1") == 0;
 }
 
@@ -131,13 +132,18 @@ size_t NameMax(int dir_fd) {
 // does not depend on the C library's wrapper; where the filesystem or
 // kernel does not support the flag (EINVAL, ENOSYS, EOPNOTSUPP), link() to
 // the new name (which fails on an existing name) then unlink() the old.
+// CHUTE_TEST_NO_RENAMEAT2=1 (tests only) takes the fallback as if the flag
+// were unsupported.
 int RenameNoReplace(int old_dir, const std::string& old_name, int new_dir,
                     const std::string& new_name) {
-  if (::syscall(SYS_renameat2, old_dir, old_name.c_str(), new_dir, new_name.c_str(),
-                RENAME_NOREPLACE) == 0) {
-    return 0;
+  int err = EINVAL;
+  if (!TestSwitch("CHUTE_TEST_NO_RENAMEAT2")) {
+    if (::syscall(SYS_renameat2, old_dir, old_name.c_str(), new_dir, new_name.c_str(),
+                  RENAME_NOREPLACE) == 0) {
+      return 0;
+    }
+    err = errno;
   }
-  const int err = errno;
   if (err != EINVAL && err != ENOSYS && err != EOPNOTSUPP) return err;
   if (::linkat(old_dir, old_name.c_str(), new_dir, new_name.c_str(), 0) != 0) return errno;
   if (::unlinkat(old_dir, old_name.c_str(), 0) != 0) {
@@ -596,7 +602,7 @@ Status Deliver(const std::string& source, const std::string& wanted, DeliveryMod
     }
   }
 
-  if (mode == DeliveryMode::kMove && !ForceCopy()) {
+  if (mode == DeliveryMode::kMove && !TestSwitch("CHUTE_TEST_FORCE_COPY")) {
     for (;;) {
       if (!names.Next(&name)) return NoFreeName(p.folder_path, p.source_name);
       const int err = RenameNoReplace(p.source_dir.get(), p.source_name, p.folder.get(), name);

@@ -13,12 +13,19 @@
 //    sequences, to make room).
 //  - Never overwriting: on one filesystem, renameat2(RENAME_NOREPLACE),
 //    falling back to link() + unlink() where the filesystem does not support
-//    it (EINVAL/ENOSYS); across filesystems (EXDEV), or when the test-only
-//    environment variable CHUTE_TEST_FORCE_COPY=1 is set, the bytes are
-//    copied to ".chute-tmp-<random>" inside the destination folder, the
-//    file and the folder are fsync'ed, the copy is linked under its name
-//    without replacing (link(), EEXIST -> next name), the temporary name
-//    removed, and only then the source removed.
+//    it (EINVAL/ENOSYS/EOPNOTSUPP; the test-only CHUTE_TEST_NO_RENAMEAT2=1
+//    takes this fallback everywhere); EEXIST -> next name. Across
+//    filesystems (EXDEV), or when the test-only environment variable
+//    CHUTE_TEST_FORCE_COPY=1 is set, the bytes are copied to
+//    ".chute-tmp-<random>" inside the destination folder and the file
+//    fsync'ed; the copy takes its name without replacing (the same rename,
+//    or link() + unlink() of the temporary name; EEXIST -> next name), the
+//    folder is fsync'ed, and only then the source removed (and its folder
+//    fsync'ed). A source that changed while it was copied (size or mtime)
+//    is left where it is and the delivery fails. Copies keep the source's
+//    atime and mtime. The same-filesystem rename is not followed by an
+//    fsync: it is atomic, so a crash leaves the file in one place or the
+//    other; after a power loss the filesystem's journal decides which.
 //  - --copy: as the cross-filesystem path, without removing the source.
 //    --link: a hard link (link(), next name on EEXIST); EXDEV is refused.
 //
