@@ -406,7 +406,8 @@ CommandRun SetupRoute(CLI::App* cmd) {
                                          "DEST/_unreadable/"));
   into_only("--by", cmd->add_option("--by", o->by,
                                     "NAME: who routes, recorded in the log (default: your login "
-                                    "name)"));
+                                    "name)")
+                        ->type_name("NAME"));
   o->by = LoginName();
   cmd->footer(R"(Confidence is the posterior probability of the chosen queue. Naive Bayes
 is often over-confident: have a person review documents below a threshold
