@@ -85,6 +85,11 @@ struct Slot {
   Decision decision;
 };
 
+// Documents logged in one transaction, delivered, then marked delivered in
+// one: several parallel windows, so that the two commits, each of which
+// waits for the disk, are paid once per batch rather than once per window.
+constexpr size_t kDeliveryBatch = 8 * kParallelWindow;
+
 }  // namespace
 
 struct FolderRouter::State {
@@ -354,15 +359,134 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
   Status failure;
   st.claimed.clear();
 
+  // One input once decided, until its batch is logged and delivered.
+  struct Decided {
+    RoutedDocument doc;
+    bool deliver = false;         // log, then deliver
+    bool unreadable = false;      // remember (and set aside)
+    bool was_unreadable = false;  // remembered before, readable now
+    UnreadableFile file;          // what to remember of an unreadable one
+  };
+  std::vector<Decided> batch;
+
   auto fill = [&](size_t start, size_t count, int buffer) {
     ParallelFor(count, threads, [&, start, buffer](size_t i, size_t worker) {
       st.Prepare(files[start + i], &windows[buffer][i], worker);
     });
   };
 
+  // Logs the batch's intended deliveries (one transaction), delivers them,
+  // marks them delivered (one transaction), handles the unreadable ones,
+  // then reports every input of the batch in order.
+  auto flush = [&]() -> Status {
+    std::vector<size_t> to_deliver;
+    for (size_t i = 0; i < batch.size(); ++i) {
+      if (batch[i].deliver) to_deliver.push_back(i);
+    }
+    if (!o.dry_run && !to_deliver.empty()) {
+      // The intended destinations are committed before any file moves.
+      std::vector<DecisionRecord> records;
+      records.reserve(to_deliver.size());
+      for (size_t i : to_deliver) records.push_back(batch[i].doc.record);
+      if (Status s = st.store->LogIntended(&records); !s.ok()) return s;
+      std::vector<int64_t> delivered, dropped;
+      for (size_t k = 0; k < to_deliver.size(); ++k) {
+        RoutedDocument& d = batch[to_deliver[k]].doc;
+        d.record.id = records[k].id;
+        Delivered out;
+        Status s = Deliver(d.record.source, d.record.destination, o.mode, &out);
+        if (!s.ok()) {
+          d.outcome = Outcome::kFailed;
+          d.reason = ReasonOf(s, d.record.source);
+          dropped.push_back(d.record.id);
+          copied.erase(d.record.digest);
+          continue;
+        }
+        if (out.destination != d.record.destination) {
+          if (Status u = st.store->SetDestination(d.record.id, out.destination); !u.ok()) {
+            return u;
+          }
+          d.record.destination = out.destination;
+        }
+        d.record.delivered = true;
+        delivered.push_back(d.record.id);
+      }
+      if (Status s = st.store->MarkDelivered(delivered); !s.ok()) return s;
+      if (Status s = st.store->DropIntended(dropped); !s.ok()) return s;
+      // A file remembered as unreadable that now was read is forgotten.
+      for (size_t i : to_deliver) {
+        const Decided& d = batch[i];
+        if (d.was_unreadable && d.doc.outcome == Outcome::kDelivered) {
+          if (Status s = st.store->ForgetUnreadable(d.doc.record.source); !s.ok()) return s;
+          std::lock_guard<std::mutex> lock(st.unreadable_mutex);
+          st.unreadable.erase(d.doc.record.source);
+        }
+      }
+    }
+
+    // Unreadable documents: remembered (so that they are not read again
+    // until they change) and, with set_aside, moved to DEST/_unreadable/.
+    for (Decided& u : batch) {
+      if (!u.unreadable) continue;
+      RoutedDocument& d = u.doc;
+      if (o.set_aside) {
+        std::string wanted;
+        Status s = st.Choose(kUnreadableFolder, BaseName(d.path), &wanted);
+        if (s.ok()) {
+          d.record.destination = wanted;
+          if (!o.dry_run) {
+            Delivered out;
+            s = Deliver(u.file.path, wanted, DeliveryMode::kMove, &out);
+            if (s.ok()) {
+              d.record.destination = out.destination;
+              u.file.set_aside = out.destination;
+            }
+          }
+        }
+        if (!s.ok()) {
+          d.record.destination.clear();
+          d.reason += "; could not be set aside: " + s.message();
+        }
+      }
+      if (o.dry_run) continue;
+      if (Status s = st.store->RememberUnreadable(u.file); !s.ok()) return s;
+      std::lock_guard<std::mutex> lock(st.unreadable_mutex);
+      st.unreadable[u.file.path] = u.file;
+    }
+
+    // Once delivered, the files themselves hold their names; a dry run
+    // made none, so its names stay claimed for the whole call.
+    if (!o.dry_run) st.claimed.clear();
+    for (const Decided& decided : batch) {
+      const RoutedDocument& d = decided.doc;
+      switch (d.outcome) {
+        case Outcome::kDelivered:
+        case Outcome::kWouldDeliver:
+          ++tally->delivered;
+          if (d.record.held == HeldReason::kAudit) {
+            ++tally->audit;
+          } else if (d.record.held != HeldReason::kNone) {
+            ++tally->held;
+          }
+          break;
+        case Outcome::kSkipped:
+          ++tally->skipped;
+          break;
+        case Outcome::kUnreadable:
+          ++tally->unreadable;
+          break;
+        case Outcome::kFailed:
+          ++tally->failed;
+          break;
+      }
+      if (report) report(d);
+    }
+    batch.clear();
+    return Status::Ok();
+  };
+
   auto consume = [&](size_t start, size_t count, int buffer) -> bool {
     std::vector<Slot>& window = windows[buffer];
-    std::vector<RoutedDocument> docs(count);
     const std::string now = NowRfc3339();
     // Digests to ask the store about (--copy/--link without --again).
     std::vector<std::string> digests;
@@ -379,12 +503,12 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
       delivered_before.insert(found.begin(), found.end());
     }
 
-    std::vector<size_t> to_deliver;          // indices into docs
-    std::vector<size_t> unreadable_docs;     // read failed: remember (and set aside)
     for (size_t i = 0; i < count; ++i) {
       const InputFile& f = files[start + i];
       Slot& slot = window[i];
-      RoutedDocument& d = docs[i];
+      batch.emplace_back();
+      Decided& decided = batch.back();
+      RoutedDocument& d = decided.doc;
       d.path = f.path;
       d.record.source = slot.absolute;
       if (!slot.stat_ok) {
@@ -409,16 +533,23 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
                    slot.known_unreadable->first_seen;
         continue;
       }
-      if (slot.known_unreadable) {  // remembered earlier; now set aside
+      if (slot.known_unreadable || !slot.status.ok()) {
+        // Unreadable now, or remembered earlier and now to be set aside.
         d.outcome = Outcome::kUnreadable;
-        d.reason = slot.known_unreadable->reason;
-        unreadable_docs.push_back(i);
-        continue;
-      }
-      if (!slot.status.ok()) {
-        d.outcome = Outcome::kUnreadable;
-        d.reason = ReasonOf(slot.status, f.path);
-        unreadable_docs.push_back(i);
+        d.reason = slot.known_unreadable ? slot.known_unreadable->reason
+                                         : ReasonOf(slot.status, f.path);
+        decided.unreadable = true;
+        UnreadableFile& u = decided.file;
+        u.path = slot.absolute;
+        u.size = slot.size;
+        u.mtime_ns = slot.mtime_ns;
+        u.digest = slot.doc.digest;  // empty unless the reader got that far
+        u.reason = d.reason;
+        u.first_seen = now;
+        if (slot.known_unreadable) {
+          u.digest = slot.known_unreadable->digest;
+          u.first_seen = slot.known_unreadable->first_seen;
+        }
         continue;
       }
       const Decision& dec = slot.decision;
@@ -459,135 +590,16 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
       }
       if (o.mode != DeliveryMode::kMove) copied.insert(r.digest);
       d.outcome = o.dry_run ? Outcome::kWouldDeliver : Outcome::kDelivered;
-      to_deliver.push_back(i);
+      decided.deliver = true;
+      decided.was_unreadable = slot.was_unreadable;
     }
-
-    if (!o.dry_run && !to_deliver.empty()) {
-      // The intended destinations are committed before any file moves.
-      std::vector<DecisionRecord> records;
-      records.reserve(to_deliver.size());
-      for (size_t i : to_deliver) records.push_back(docs[i].record);
-      if (Status s = st.store->LogIntended(&records); !s.ok()) {
+    // Each commit of the store waits for the disk (synchronous = FULL), so
+    // several windows share one logging transaction and one marking one.
+    if (batch.size() >= kDeliveryBatch || start + count == files.size()) {
+      if (Status s = flush(); !s.ok()) {
         failure = s;
         return false;
       }
-      std::vector<int64_t> delivered, dropped;
-      for (size_t k = 0; k < to_deliver.size(); ++k) {
-        RoutedDocument& d = docs[to_deliver[k]];
-        d.record.id = records[k].id;
-        Delivered out;
-        Status s = Deliver(d.record.source, d.record.destination, o.mode, &out);
-        if (!s.ok()) {
-          d.outcome = Outcome::kFailed;
-          d.reason = ReasonOf(s, d.record.source);
-          dropped.push_back(d.record.id);
-          copied.erase(d.record.digest);
-          continue;
-        }
-        if (out.destination != d.record.destination) {
-          if (Status u = st.store->SetDestination(d.record.id, out.destination); !u.ok()) {
-            failure = u;
-            return false;
-          }
-          d.record.destination = out.destination;
-        }
-        d.record.delivered = true;
-        delivered.push_back(d.record.id);
-      }
-      if (!delivered.empty()) {
-        if (Status s = st.store->MarkDelivered(delivered); !s.ok()) {
-          failure = s;
-          return false;
-        }
-      }
-      if (!dropped.empty()) {
-        if (Status s = st.store->DropIntended(dropped); !s.ok()) {
-          failure = s;
-          return false;
-        }
-      }
-      // A file remembered as unreadable that now was read is forgotten.
-      for (size_t i : to_deliver) {
-        if (window[i].was_unreadable && docs[i].outcome == Outcome::kDelivered) {
-          if (Status s = st.store->ForgetUnreadable(window[i].absolute); !s.ok()) {
-            failure = s;
-            return false;
-          }
-          std::lock_guard<std::mutex> lock(st.unreadable_mutex);
-          st.unreadable.erase(window[i].absolute);
-        }
-      }
-    }
-
-    // Unreadable documents: remembered (so that they are not read again
-    // until they change) and, with set_aside, moved to DEST/_unreadable/.
-    for (size_t i : unreadable_docs) {
-      Slot& slot = window[i];
-      RoutedDocument& d = docs[i];
-      UnreadableFile u;
-      u.path = slot.absolute;
-      u.size = slot.size;
-      u.mtime_ns = slot.mtime_ns;
-      u.digest = slot.doc.digest;  // empty unless the reader got that far
-      u.reason = d.reason;
-      u.first_seen = now;
-      if (slot.known_unreadable) {
-        u.digest = slot.known_unreadable->digest;
-        u.first_seen = slot.known_unreadable->first_seen;
-      }
-      if (o.set_aside) {
-        std::string wanted;
-        Status s = st.Choose(kUnreadableFolder, BaseName(files[start + i].path), &wanted);
-        if (s.ok()) {
-          d.record.destination = wanted;
-          if (!o.dry_run) {
-            Delivered out;
-            s = Deliver(slot.absolute, wanted, DeliveryMode::kMove, &out);
-            if (s.ok()) {
-              d.record.destination = out.destination;
-              u.set_aside = out.destination;
-            }
-          }
-        }
-        if (!s.ok()) {
-          d.record.destination.clear();
-          d.reason += "; could not be set aside: " + s.message();
-        }
-      }
-      if (o.dry_run) continue;
-      if (Status s = st.store->RememberUnreadable(u); !s.ok()) {
-        failure = s;
-        return false;
-      }
-      std::lock_guard<std::mutex> lock(st.unreadable_mutex);
-      st.unreadable[u.path] = u;
-    }
-
-    // Once delivered, the files themselves hold their names; a dry run
-    // made none, so its names stay claimed for the whole call.
-    if (!o.dry_run) st.claimed.clear();
-    for (const RoutedDocument& d : docs) {
-      switch (d.outcome) {
-        case Outcome::kDelivered:
-        case Outcome::kWouldDeliver:
-          ++tally->delivered;
-          if (d.record.held == HeldReason::kAudit) {
-            ++tally->audit;
-          } else if (d.record.held != HeldReason::kNone) {
-            ++tally->held;
-          }
-          break;
-        case Outcome::kSkipped:
-          ++tally->skipped;
-          break;
-        case Outcome::kUnreadable:
-          ++tally->unreadable;
-          break;
-        case Outcome::kFailed:
-          ++tally->failed;
-          break;
-      }
-      if (report) report(d);
     }
     return true;
   };
