@@ -8,6 +8,7 @@
 #include <map>
 #include <mutex>
 #include <optional>
+#include <thread>
 #include <unordered_map>
 #include <unordered_set>
 #include <utility>
@@ -97,6 +98,7 @@ struct FolderRouter::State {
   FolderRouteOptions options;
   std::string root;  // DEST, absolute and symlink-free
   bool root_missing = false;  // a dry run into a DEST not made yet
+  std::filesystem::path cwd;  // the working folder, read when Route begins
   std::optional<Model> model;
   VersionInfo version;
   StoreSettings settings;
@@ -110,6 +112,9 @@ struct FolderRouter::State {
   // Destinations chosen in this router's Route calls but perhaps not yet
   // made: two documents of the same name never aim at one path.
   std::unordered_set<std::string> claimed;
+  // The claims of the batch being delivered meanwhile (Route): read by
+  // Choose, changed only between batches.
+  std::unordered_set<std::string> claimed_in_flight;
 
   Status LoadModel();
   Status LoadPolicies();
@@ -158,14 +163,30 @@ Status FolderRouter::State::Choose(const std::string& folder, const std::string&
       const std::string numbered = NumberedName(name, n, 255);
       if (numbered.empty()) return Status::InvalidArgument(name + ": no free name");
       *dest = root + "/" + folder + "/" + numbered;
-      if (claimed.insert(*dest).second) return Status::Ok();
+      if (claimed_in_flight.count(*dest) == 0 && claimed.insert(*dest).second) {
+        return Status::Ok();
+      }
+    }
+  }
+  // The common case first, with one lstat: the name is free and its own
+  // (not shortened). ChooseDestination, seven system calls, decides every
+  // other case; Deliver refuses a queue folder that is a symbolic link
+  // either way.
+  if (NumberedName(name, 1, 255) == name) {
+    std::string path = root + "/" + folder + "/" + name;
+    struct stat st;
+    if (::lstat(path.c_str(), &st) != 0 && errno == ENOENT && claimed.count(path) == 0 &&
+        claimed_in_flight.count(path) == 0) {
+      claimed.insert(path);
+      *dest = std::move(path);
+      return Status::Ok();
     }
   }
   if (Status s = ChooseDestination(root, folder, name, dest); !s.ok()) return s;
   // Another document of this window already aims at that name: the next
   // numbered names, as Deliver would try them (NAME_MAX 255 bytes: Linux's
   // file systems; recalled from memory).
-  for (int64_t n = 2; claimed.count(*dest) > 0; ++n) {
+  for (int64_t n = 2; claimed.count(*dest) > 0 || claimed_in_flight.count(*dest) > 0; ++n) {
     const std::string numbered = NumberedName(name, n, 255);
     if (numbered.empty()) break;  // names ran out: Deliver picks a free one
     if (Status s = ChooseDestination(root, folder, numbered, dest); !s.ok()) return s;
@@ -175,8 +196,25 @@ Status FolderRouter::State::Choose(const std::string& folder, const std::string&
 }
 
 void FolderRouter::State::Prepare(const InputFile& f, Slot* slot, size_t worker) {
-  *slot = Slot();
-  slot->absolute = SourcePath(f.path);
+  // Reset field by field: the buffers of the slot's text, terms and rows
+  // are kept for the next document (freeing them each time costs).
+  slot->stat_ok = false;
+  slot->stat_errno = 0;
+  slot->regular = slot->symlink = false;
+  slot->size = slot->mtime_ns = 0;
+  slot->known_unreadable.reset();
+  slot->was_unreadable = false;
+  slot->read = false;
+  slot->status = Status::Ok();
+  slot->doc.digest.clear();
+  slot->doc.replaced = 0;
+  slot->terms.clear();
+  slot->unknown = 0;
+  // As SourcePath (std::filesystem::absolute, lexically), with the
+  // working folder read once per Route.
+  const std::filesystem::path given(f.path);
+  slot->absolute =
+      (given.is_absolute() ? given : cwd / given).lexically_normal().string();
   struct stat st;
   if (::lstat(f.path.c_str(), &st) != 0) {
     slot->stat_errno = errno;
@@ -358,6 +396,12 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
   std::unordered_set<std::string> copied;
   Status failure;
   st.claimed.clear();
+  st.claimed_in_flight.clear();
+  {
+    std::error_code ec;
+    st.cwd = std::filesystem::current_path(ec);
+    if (ec) return Status::IoError("cannot read the working folder: " + ec.message());
+  }
 
   // One input once decided, until its batch is logged and delivered.
   struct Decided {
@@ -375,23 +419,26 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
     });
   };
 
-  // Logs the batch's intended deliveries (one transaction), delivers them,
+  // Logs a batch's intended deliveries (one transaction), delivers them,
   // marks them delivered (one transaction), handles the unreadable ones,
-  // then reports every input of the batch in order.
-  auto flush = [&]() -> Status {
+  // then reports every input of the batch in order. Runs on the delivery
+  // thread while the next batch is read and decided; touches no state the
+  // deciding side changes meanwhile.
+  auto deliver_batch = [&](std::vector<Decided>& group,
+                           std::vector<std::string>* failed_copies) -> Status {
     std::vector<size_t> to_deliver;
-    for (size_t i = 0; i < batch.size(); ++i) {
-      if (batch[i].deliver) to_deliver.push_back(i);
+    for (size_t i = 0; i < group.size(); ++i) {
+      if (group[i].deliver) to_deliver.push_back(i);
     }
     if (!o.dry_run && !to_deliver.empty()) {
       // The intended destinations are committed before any file moves.
       std::vector<DecisionRecord> records;
       records.reserve(to_deliver.size());
-      for (size_t i : to_deliver) records.push_back(batch[i].doc.record);
+      for (size_t i : to_deliver) records.push_back(group[i].doc.record);
       if (Status s = st.store->LogIntended(&records); !s.ok()) return s;
       std::vector<int64_t> delivered, dropped;
       for (size_t k = 0; k < to_deliver.size(); ++k) {
-        RoutedDocument& d = batch[to_deliver[k]].doc;
+        RoutedDocument& d = group[to_deliver[k]].doc;
         d.record.id = records[k].id;
         Delivered out;
         Status s = Deliver(d.record.source, d.record.destination, o.mode, &out);
@@ -399,7 +446,7 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
           d.outcome = Outcome::kFailed;
           d.reason = ReasonOf(s, d.record.source);
           dropped.push_back(d.record.id);
-          copied.erase(d.record.digest);
+          failed_copies->push_back(d.record.digest);
           continue;
         }
         if (out.destination != d.record.destination) {
@@ -415,7 +462,7 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
       if (Status s = st.store->DropIntended(dropped); !s.ok()) return s;
       // A file remembered as unreadable that now was read is forgotten.
       for (size_t i : to_deliver) {
-        const Decided& d = batch[i];
+        const Decided& d = group[i];
         if (d.was_unreadable && d.doc.outcome == Outcome::kDelivered) {
           if (Status s = st.store->ForgetUnreadable(d.doc.record.source); !s.ok()) return s;
           std::lock_guard<std::mutex> lock(st.unreadable_mutex);
@@ -426,26 +473,18 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
 
     // Unreadable documents: remembered (so that they are not read again
     // until they change) and, with set_aside, moved to DEST/_unreadable/.
-    for (Decided& u : batch) {
+    for (Decided& u : group) {
       if (!u.unreadable) continue;
       RoutedDocument& d = u.doc;
-      if (o.set_aside) {
-        std::string wanted;
-        Status s = st.Choose(kUnreadableFolder, BaseName(d.path), &wanted);
+      if (!o.dry_run && !d.record.destination.empty()) {  // to set aside
+        Delivered out;
+        Status s = Deliver(u.file.path, d.record.destination, DeliveryMode::kMove, &out);
         if (s.ok()) {
-          d.record.destination = wanted;
-          if (!o.dry_run) {
-            Delivered out;
-            s = Deliver(u.file.path, wanted, DeliveryMode::kMove, &out);
-            if (s.ok()) {
-              d.record.destination = out.destination;
-              u.file.set_aside = out.destination;
-            }
-          }
-        }
-        if (!s.ok()) {
+          d.record.destination = out.destination;
+          u.file.set_aside = out.destination;
+        } else {
           d.record.destination.clear();
-          d.reason += "; could not be set aside: " + s.message();
+          d.reason += "; could not be set aside: " + ReasonOf(s, u.file.path);
         }
       }
       if (o.dry_run) continue;
@@ -454,10 +493,7 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
       st.unreadable[u.file.path] = u.file;
     }
 
-    // Once delivered, the files themselves hold their names; a dry run
-    // made none, so its names stay claimed for the whole call.
-    if (!o.dry_run) st.claimed.clear();
-    for (const Decided& decided : batch) {
+    for (const Decided& decided : group) {
       const RoutedDocument& d = decided.doc;
       switch (d.outcome) {
         case Outcome::kDelivered:
@@ -481,7 +517,47 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
       }
       if (report) report(d);
     }
+    return Status::Ok();
+  };
+
+  // The batch in flight on the delivery thread, one at a time.
+  std::vector<Decided> flying;
+  std::vector<std::string> flying_failed_copies;
+  Status flying_status;
+  std::thread flight;
+  struct JoinFlight {
+    std::thread& t;
+    ~JoinFlight() {
+      if (t.joinable()) t.join();
+    }
+  } join_flight{flight};
+  // Waits for the batch in flight. Its files now hold their names, so its
+  // claims are dropped (a dry run made no file: its claims stay).
+  auto land = [&]() -> Status {
+    if (flight.joinable()) flight.join();
+    for (const std::string& d : flying_failed_copies) copied.erase(d);
+    flying_failed_copies.clear();
+    flying.clear();
+    if (!o.dry_run) st.claimed_in_flight.clear();
+    return flying_status;
+  };
+  // Sends the decided batch to the delivery thread once the one before
+  // it has landed.
+  auto launch = [&]() -> Status {
+    if (Status s = land(); !s.ok()) return s;
+    flying = std::move(batch);
     batch.clear();
+    if (!o.dry_run) {
+      st.claimed_in_flight = std::move(st.claimed);
+      st.claimed.clear();
+    }
+    flight = std::thread([&] {
+      try {
+        flying_status = deliver_batch(flying, &flying_failed_copies);
+      } catch (const std::exception& e) {
+        flying_status = Status::IoError(std::string("delivering: ") + e.what());
+      }
+    });
     return Status::Ok();
   };
 
@@ -496,7 +572,9 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
     std::unordered_set<std::string> delivered_before;
     if (o.mode != DeliveryMode::kMove && !o.again && !digests.empty()) {
       std::vector<std::string> found;
-      if (Status s = st.store->DeliveredCopies(digests, &found); !s.ok()) {
+      Status s = land();  // the store is used by one thread at a time
+      if (s.ok()) s = st.store->DeliveredCopies(digests, &found);
+      if (!s.ok()) {
         failure = s;
         return false;
       }
@@ -550,6 +628,13 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
           u.digest = slot.known_unreadable->digest;
           u.first_seen = slot.known_unreadable->first_seen;
         }
+        if (o.set_aside) {
+          if (Status s = st.Choose(kUnreadableFolder, BaseName(f.path), &d.record.destination);
+              !s.ok()) {
+            d.record.destination.clear();
+            d.reason += "; could not be set aside: " + s.message();
+          }
+        }
         continue;
       }
       const Decision& dec = slot.decision;
@@ -594,9 +679,10 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
       decided.was_unreadable = slot.was_unreadable;
     }
     // Each commit of the store waits for the disk (synchronous = FULL), so
-    // several windows share one logging transaction and one marking one.
+    // several windows share one logging transaction and one marking one;
+    // the batch is delivered while the next is read and decided.
     if (batch.size() >= kDeliveryBatch || start + count == files.size()) {
-      if (Status s = flush(); !s.ok()) {
+      if (Status s = launch(); !s.ok()) {
         failure = s;
         return false;
       }
@@ -605,6 +691,7 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
   };
 
   PipelineWindows(files.size(), fill, consume);
+  if (Status s = land(); failure.ok()) failure = s;
   return failure;
 }
 
