@@ -8,9 +8,12 @@ Each run makes an inbox of 500 documents (five subfolders whose files share
 their names, so that the -2, -3 names are used; every text unique) and
 routes it with `chute route inbox --into dest --move --hold-below 0.6`
 (some go to _review), killing the process with SIGKILL after a random,
-seeded delay within the time an unkilled run takes (measured first, once
-per kind of run). One run in three is killed a second time while it reruns
-(the kill may land while the rerun finishes the deliveries the first left).
+seeded delay between the start-up (a run on an empty inbox) and the end of
+an unkilled run (both measured first, once per kind of run). One run in
+three is killed a second time while it reruns, at any moment (it may land
+while the rerun finishes the deliveries the first left). The last line
+counts the kills that left some documents delivered and some not, and
+those that caught a document in both places.
 After each kill:
   - every document's bytes (by SHA-256) are in the inbox, under its own
     path, or in exactly one file below dest, or in both; never in neither;
@@ -174,7 +177,7 @@ def log_rows(chute, db):
     return [json.loads(line) for line in p.stdout.splitlines()]
 
 
-def one_run(runner, kind, run, rng, expected_seconds, landed):
+def one_run(runner, kind, run, rng, expected, landed):
     chute = runner.chute
     db = "r%03d.db" % run
     chute.copy_store(db)
@@ -182,8 +185,13 @@ def one_run(runner, kind, run, rng, expected_seconds, landed):
     try:
         documents = write_inbox(inbox, rng, run * DOCUMENTS)
         kills = 2 if rng.random() < 1 / 3 else 1
+        startup, whole = expected
         for k in range(kills):
-            delay = rng.uniform(0.0, expected_seconds)
+            # The first kill lands after the start-up (reading the model),
+            # while documents are decided and delivered; a second one
+            # anywhere, so also while the rerun finishes what the first
+            # left.
+            delay = rng.uniform(startup if k == 0 else 0.0, whole)
             code, err = runner.killed(kind, db, inbox, dest, delay)
             what = "run %d (%s), kill %d after %.3f s" % (run, kind, k + 1, delay)
             if code == -signal.SIGKILL:
@@ -191,7 +199,12 @@ def one_run(runner, kind, run, rng, expected_seconds, landed):
             else:
                 landed["finished first"] += 1
                 expect(code == 0, "%s: exit %d: %s" % (what, code, err))
-            check_nothing_lost(what, inbox, dest, documents)
+            in_dest = check_nothing_lost(what, inbox, dest, documents)
+            in_inbox = sum(os.path.exists(os.path.join(inbox, rel)) for rel in documents)
+            if 0 < len(in_dest) < len(documents):
+                landed["mid-delivery"] += 1
+            if len(in_dest) + in_inbox > len(documents):
+                landed["both places"] += 1
             check_logged_where_they_are(what, chute, db)
         what = "run %d (%s), the rerun" % (run, kind)
         p = runner.run(kind, db, inbox, dest)
@@ -234,11 +247,17 @@ def one_run(runner, kind, run, rng, expected_seconds, landed):
 
 
 def measure(runner, kind, rng):
-    """Seconds an unkilled run of the kind takes (it is also checked)."""
+    """(start-up, whole): seconds a run of the kind takes on an empty inbox
+    and on a full one, unkilled (the full one is also checked)."""
     db = "measure.db"
     runner.chute.copy_store(db)
     inbox, dest = places_for(kind, runner.work, 999)
     try:
+        t = time.monotonic()
+        p = runner.run(kind, db, inbox, dest)
+        startup = time.monotonic() - t
+        expect(p.returncode == 0, "measure %s, empty: exit %d: %s" % (
+            kind, p.returncode, p.stderr))
         documents = write_inbox(inbox, rng, 10 ** 6)
         t = time.monotonic()
         p = runner.run(kind, db, inbox, dest)
@@ -247,7 +266,7 @@ def measure(runner, kind, rng):
         in_dest = check_nothing_lost("measure " + kind, inbox, dest, documents)
         expect(len(in_dest) == len(documents), "measure %s: %d of %d documents delivered" % (
             kind, len(in_dest), len(documents)))
-        return seconds
+        return startup, max(seconds, startup)
     finally:
         shutil.rmtree(os.path.dirname(inbox), ignore_errors=True)
         if kind == "across-fs":
@@ -266,15 +285,18 @@ def main():
         chute.run("learn", "--tree", "labelled")
         runner = Runner(chute, work)
         expected = {kind: measure(runner, kind, rng) for kind in KINDS}
-        landed = {"killed": 0, "finished first": 0}
+        landed = {"killed": 0, "finished first": 0, "mid-delivery": 0, "both places": 0}
         for run in range(runs):
             kind = KINDS[run % len(KINDS)]
             one_run(runner, kind, run, rng, expected[kind], landed)
-        timing = ", ".join("%s %.2f s" % (k, v) for k, v in expected.items())
+        timing = ", ".join("%s %.2f s (start-up %.2f s)" % (k, v[1], v[0])
+                           for k, v in expected.items())
     return checks.exit_status(
-        "%d runs of %d documents (unkilled: %s): %d kills landed, %d runs finished before "
+        "%d runs of %d documents (unkilled: %s): %d kills landed (%d with some documents "
+        "delivered and some not, %d with a document in both places), %d runs finished before "
         "their kill; nothing lost, no duplicates, one log row per document" % (
-            runs, DOCUMENTS, timing, landed["killed"], landed["finished first"]))
+            runs, DOCUMENTS, timing, landed["killed"], landed["mid-delivery"],
+            landed["both places"], landed["finished first"]))
 
 
 if __name__ == "__main__":
