@@ -3,6 +3,7 @@
 #include <sys/stat.h>
 
 #include <cerrno>
+#include <cstdlib>
 #include <cstring>
 #include <filesystem>
 #include <map>
@@ -91,6 +92,17 @@ struct Slot {
 // waits for the disk, are paid once per batch rather than once per window.
 constexpr size_t kDeliveryBatch = 8 * kParallelWindow;
 
+// The batch size: kDeliveryBatch, or for tests the environment variable
+// CHUTE_TEST_DELIVERY_BATCH (1 to 4096), so that a test of a few hundred
+// documents has several batches in flight.
+size_t DeliveryBatch() {
+  const char* v = std::getenv("CHUTE_TEST_DELIVERY_BATCH");
+  if (v == nullptr || *v == '\0') return kDeliveryBatch;
+  char* end = nullptr;
+  const long n = std::strtol(v, &end, 10);
+  return *end == '\0' && n >= 1 && n <= 4096 ? static_cast<size_t>(n) : kDeliveryBatch;
+}
+
 }  // namespace
 
 struct FolderRouter::State {
@@ -99,6 +111,7 @@ struct FolderRouter::State {
   std::string root;  // DEST, absolute and symlink-free
   bool root_missing = false;  // a dry run into a DEST not made yet
   std::filesystem::path cwd;  // the working folder, read when Route begins
+  size_t batch_size = kDeliveryBatch;  // DeliveryBatch()
   std::optional<Model> model;
   VersionInfo version;
   StoreSettings settings;
@@ -331,6 +344,7 @@ Status FolderRouter::Open(Store* store, const FolderRouteOptions& options,
   State& st = *router->state_;
   st.store = store;
   st.options = options;
+  st.batch_size = DeliveryBatch();
   if (options.dry_run) {
     // A dry run creates nothing: a DEST that does not exist yet is shown
     // where it would be.
@@ -681,7 +695,7 @@ Status FolderRouter::Route(const std::vector<InputFile>& files,
     // Each commit of the store waits for the disk (synchronous = FULL), so
     // several windows share one logging transaction and one marking one;
     // the batch is delivered while the next is read and decided.
-    if (batch.size() >= kDeliveryBatch || start + count == files.size()) {
+    if (batch.size() >= st.batch_size || start + count == files.size()) {
       if (Status s = launch(); !s.ok()) {
         failure = s;
         return false;

@@ -91,9 +91,11 @@ class FolderRouter {
   // Routes files in order, calling report for each as soon as it is done
   // (in input order). Fails only when the store fails (a document that
   // cannot be read or delivered is an outcome, not a failure). Documents
-  // are delivered in batches on a thread of their own while the next batch
-  // is read and decided: report is called on that thread, never two calls
-  // at once, and every call has returned when Route returns.
+  // are delivered in batches (512; for tests, the environment variable
+  // CHUTE_TEST_DELIVERY_BATCH sets the size) on a thread of their own
+  // while the next batch is read and decided: report is called on that
+  // thread, never two calls at once, and every call has returned when
+  // Route returns.
   Status Route(const std::vector<InputFile>& files,
                const std::function<void(const RoutedDocument&)>& report,
                FolderRouteTally* tally);

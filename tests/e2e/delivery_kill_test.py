@@ -29,7 +29,10 @@ Runs alternate between three kinds: inbox and dest on one filesystem;
 dest on another (/dev/shm, a tmpfs; the st_dev of the two are asserted to
 differ), so that the bytes are copied; one filesystem with
 CHUTE_TEST_FORCE_COPY=1 (cli/deliver/file_delivery.h), which forces the
-copy path there. 15 runs (make test); 100 with --full (make soak).
+copy path there. Every other run delivers in batches of 48 documents
+instead of 512 (CHUTE_TEST_DELIVERY_BATCH), so that one batch is delivered
+while the next is decided. 15 runs (make test); 100 with --full (make
+soak).
 
 Exit status 0 when every check holds; the failures are printed otherwise.
 """
@@ -50,6 +53,10 @@ import reliability as rl  # noqa: E402
 DOCUMENTS = 500
 FOLDERS = 5
 KINDS = ("same-fs", "across-fs", "forced-copy")
+# Every other run delivers in batches of this size instead of chute's 512
+# (CHUTE_TEST_DELIVERY_BATCH), so that batches are logged, delivered and
+# decided side by side when the kill lands.
+SMALL_BATCH = 48
 SHM = "/dev/shm"
 
 checks = rl.Checks()
@@ -120,12 +127,16 @@ class Runner:
     def __init__(self, chute, work):
         self.chute = chute
         self.work = work
+        self.small_batches = False
 
     def env(self, kind):
         env = rl.Chute(self.chute.binary, self.work).env()
         env.pop("CHUTE_TEST_FORCE_COPY", None)
+        env.pop("CHUTE_TEST_DELIVERY_BATCH", None)
         if kind == "forced-copy":
             env["CHUTE_TEST_FORCE_COPY"] = "1"
+        if self.small_batches:
+            env["CHUTE_TEST_DELIVERY_BATCH"] = str(SMALL_BATCH)
         return env
 
     def args(self, db, inbox, dest):
@@ -288,6 +299,7 @@ def main():
         landed = {"killed": 0, "finished first": 0, "mid-delivery": 0, "both places": 0}
         for run in range(runs):
             kind = KINDS[run % len(KINDS)]
+            runner.small_batches = run % 2 == 1
             one_run(runner, kind, run, rng, expected[kind], landed)
         timing = ", ".join("%s %.2f s (start-up %.2f s)" % (k, v[1], v[0])
                            for k, v in expected.items())

@@ -187,6 +187,26 @@ class RouteIntoTest(unittest.TestCase):
         with open(self.path("routed/billing/x.txt")) as f:
             self.assertEqual(f.read(), "someone else's file\n")
 
+    def test_many_batches_with_repeated_names_deliver_each_document_once(self):
+        # 1100 documents whose names repeat every 100: with batches of 7
+        # (CHUTE_TEST_DELIVERY_BATCH) and of 512, one batch is delivered
+        # while the next is decided, and names are never given twice.
+        for size in ("7", ""):
+            for i in range(1100):
+                self.write("inbox/f%d/%03d.txt" % (i // 100, i % 100),
+                           "%s batch %s doc %d\n" % (BILLING if i % 3 else BERTHS, size, i))
+            env = {"CHUTE_TEST_DELIVERY_BATCH": size} if size else {}
+            out, _ = self.chute("route", "inbox", "--into", "routed-" + (size or "512"),
+                                "--move", "--format", "jsonl", env=env)
+            rows = [json.loads(line) for line in out.splitlines()]
+            self.assertEqual(len(rows), 1100)
+            self.assertEqual(len({r["destination"] for r in rows}), 1100)
+            self.assertEqual(tree(self.path("inbox")), {})
+            for r in rows:
+                with open(r["destination"], "rb") as f:
+                    self.assertEqual(sha256(f.read()), r["digest"])
+        self.assertEqual(len(self.log()), 2200)
+
     # --- review: held reasons, precedence, audit ---
 
     def test_no_terms_goes_to_review_with_the_best_guess(self):
