@@ -44,7 +44,8 @@ std::string DriftSentence(const DriftAlert& a) {
 std::string DriftTable(const DriftReport& r, const std::string& since,
                        const DriftOptions& options) {
   std::string out = "Decisions since " + since + ": " + std::to_string(r.period.decisions) +
-                    " over " + std::to_string(r.days.size()) + " days (UTC dates).\n\n";
+                    " over " + std::to_string(r.days.size()) +
+                    (r.days.size() == 1 ? " day" : " days") + " (UTC dates).\n\n";
   TableWriter daily({{"date"},
                      {"decisions", TableWriter::Align::kRight},
                      {"held", TableWriter::Align::kRight},

@@ -64,6 +64,11 @@ std::vector<std::string> CsvHeader() {
   return names;
 }
 
+// "1 decision", "2 decisions".
+std::string Count(int64_t n, const std::string& one, const std::string& many) {
+  return std::to_string(n) + " " + (n == 1 ? one : many);
+}
+
 std::string LevelWords(double confidence) {
   return FormatShortest(std::round(confidence * 1000) / 10) + "%";
 }
@@ -78,7 +83,7 @@ std::string Period(const ProductionReport& r) {
 std::vector<std::string> CountSentences(const DecisionCounts& t) {
   const int64_t held = t.held_threshold + t.held_no_terms + t.held_min_documents + t.audit_drawn;
   return {
-      std::to_string(t.decisions) + " decisions: " + std::to_string(t.routed) +
+      Count(t.decisions, "decision", "decisions") + ": " + std::to_string(t.routed) +
           " routed to their queue's folder, " + std::to_string(held) + " held for review (" +
           std::to_string(t.held_threshold) + " below the threshold, " +
           std::to_string(t.held_no_terms) + " with no known term, " +
@@ -87,10 +92,11 @@ std::vector<std::string> CountSentences(const DecisionCounts& t) {
       "Audit sample: " + std::to_string(t.audit_drawn) + " drawn, " +
           std::to_string(t.audit_reviewed) + " reviewed, " + std::to_string(t.audit_unknown) +
           " unknown (still in review: never counted as right).",
-      "Outside the audit sample, reviewers corrected " + std::to_string(t.corrections) +
-          " decisions and confirmed " + std::to_string(t.held_confirmed) +
-          " guesses held for review; " + std::to_string(t.left_confirmed) +
-          " documents were confirmed by staying where chute put them.",
+      "Outside the audit sample, reviewers corrected " +
+          Count(t.corrections, "decision", "decisions") + " and confirmed " +
+          Count(t.held_confirmed, "guess", "guesses") + " held for review; " +
+          Count(t.left_confirmed, "document was", "documents were") +
+          " confirmed by staying where chute put them.",
   };
 }
 
@@ -103,7 +109,8 @@ std::string PrecisionSentence(const std::string& queue, const DecisionCounts& c,
     return "No audited decision " + where + " has been reviewed yet (" +
            std::to_string(c.audit_drawn) + " drawn): no precision.";
   }
-  return "Of " + std::to_string(c.audit_reviewed) + " audited decisions " + where + ", " +
+  return "Of " + Count(c.audit_reviewed, "audited decision", "audited decisions") + " " + where +
+         ", " +
          std::to_string(c.audit_correct) + (c.audit_correct == 1 ? " was" : " were") +
          " right: precision " +
          FormatFixed(c.precision->estimate, 2) + ", between " + FormatFixed(c.precision->low, 2) +

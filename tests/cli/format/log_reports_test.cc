@@ -30,7 +30,7 @@ TEST(ProductionReportTest, PrecisionInPlainWords) {
             "Of 50 audited decisions for permits, 47 were right: precision 0.94, between 0.84 "
             "and 0.98 with 95% confidence.");
   EXPECT_EQ(PrecisionSentence("", Audited(1, 1, 1), 0.95).substr(0, 46),
-            "Of 1 audited decisions in all, 1 was right: pr");
+            "Of 1 audited decision in all, 1 was right: pre");
   EXPECT_EQ(PrecisionSentence("claims", Audited(0, 0, 3), 0.95),
             "No audited decision for claims has been reviewed yet (3 drawn): no precision.");
 }
