@@ -14,7 +14,7 @@ BUILD_PACKAGES = cmake g++ make pkg-config libicu-dev libsqlite3-dev \
                  libxml2-dev python3 nlohmann-json3-dev libzstd-dev
 # Outside references used by the tests (see README, "How chute is checked").
 TEST_PACKAGES  = python3-sklearn unicode-data r-cran-tm groff-base manpages \
-                 manpages-dev python3-lxml chromium
+                 manpages-dev python3-lxml chromium python3-statsmodels
 BENCH_PACKAGES = libbenchmark-dev python3-sklearn time
 
 SUDO := $(shell [ "$$(id -u)" = 0 ] || echo sudo)

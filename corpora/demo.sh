@@ -53,3 +53,6 @@ echo "== chute versions"
 echo
 echo "== chute check"
 "$chute" check --db "$db"
+echo
+echo "== routing into folders (corpora/review_demo.sh, in build/review-demo/)"
+corpora/review_demo.sh "$chute"

@@ -21,7 +21,12 @@ cd "$work"
 echo "== chute route inbox/ --into routed/ --move --hold-below 0.9 --audit-share 0.1 --audit-seed 1"
 "$chute" route --db harbour.db inbox/ --into routed/ --move --hold-below 0.9 \
   --audit-share 0.1 --audit-seed 1 --by intake --format csv > routed.csv
-echo "$(($(wc -l < routed.csv) - 1)) documents routed"
+echo "$(($(wc -l < routed.csv) - 1)) documents routed:"
+for d in routed/*/; do printf '  %-22s %3d files\n' "${d#routed/}" "$(ls "$d" | wc -l)"; done
+echo
+echo "== chute log --since 1h | head -4   (the decision log)"
+"$chute" log --db harbour.db --since 1h > log.txt
+head -4 log.txt
 echo
 echo "== a reviewer moves files"
 /usr/bin/python3 - "$corpus/inbox-key.csv" <<'PY'
@@ -48,6 +53,10 @@ PY
 echo
 echo "== chute correct --from-folders routed/ --by nightly"
 "$chute" correct --db harbour.db --from-folders routed/ --by nightly
+echo
+echo "== chute versions (the model learned the reviewers' moves as one version)"
+"$chute" versions --db harbour.db > versions.txt
+tail -3 versions.txt
 echo
 echo "== chute evaluate --from-log"
 "$chute" evaluate --db harbour.db --from-log

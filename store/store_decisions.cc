@@ -148,7 +148,6 @@ Status Store::LogIntended(std::vector<DecisionRecord>* records) {
     r.id = sqlite3_last_insert_rowid(db_.get());
     r.delivered = false;
   }
-  FaultPoint("decisions.before_commit");
   Status s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();
