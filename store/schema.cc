@@ -141,7 +141,6 @@ CREATE TABLE decisions (
 );
 CREATE INDEX decisions_by_digest ON decisions(digest);
 CREATE INDEX decisions_by_time ON decisions(time);
-CREATE INDEX decisions_by_destination ON decisions(destination);
 CREATE INDEX decisions_undelivered ON decisions(id) WHERE delivered = 0;
 CREATE TABLE unreadable (
   path       TEXT PRIMARY KEY,
