@@ -85,6 +85,10 @@ void PrintSummary(const std::vector<Line>& lines, const ForgetResult& result,
   Print("forgot " + std::to_string(result.forgotten.size()) + " documents (" +
         std::to_string(result.removed_terms) + " terms left the vocabulary); " +
         std::to_string(refused) + " not forgotten; by " + by + "\n");
+  if (result.decisions > 0 || !result.log_only.empty()) {
+    Print("erased " + std::to_string(result.decisions) + " decision log rows (" +
+          std::to_string(result.log_only.size()) + " of documents routed but never learned)\n");
+  }
 }
 
 int RunForget(const ForgetOptions& o) {
@@ -117,7 +121,31 @@ int RunForget(const ForgetOptions& o) {
       line.reason = "matches several learned documents (" + Candidates(r) +
                     "); give more of the digest";
     } else {
-      line.reason = UnknownReason(arg, nd);
+      // Never learned, but perhaps routed into folders: the decision log
+      // (and the unreadable files) keep its path and digest.
+      std::vector<std::string> logged;
+      if (Status s = store->FindLogged(nd.name, &logged); !s.ok()) {
+        Report("forget", s.message() + "; nothing was forgotten");
+        return kExitFailed;
+      }
+      if (logged.size() == 1) {
+        line.digest = logged.front();
+        if (named.insert(logged.front()).second) {
+          line.outcome = "forgotten";
+          line.reason = "never learned; erased from the decision log";
+          digests.push_back(logged.front());
+        } else {
+          line.outcome = "duplicate";
+          line.reason = "named more than once; forgotten once";
+        }
+      } else if (logged.size() > 1) {
+        std::string some;
+        for (const std::string& d : logged) some += (some.empty() ? "" : ", ") + d.substr(0, 12);
+        line.reason = "matches several documents in the decision log (" + some +
+                      "); give more of the digest";
+      } else {
+        line.reason = UnknownReason(arg, nd);
+      }
     }
     if (line.outcome == "refused") Report("forget", arg + ": " + line.reason);
     lines.push_back(std::move(line));
@@ -148,7 +176,8 @@ int RunForget(const ForgetOptions& o) {
   }
   int64_t refused = 0;
   for (const Line& l : lines) refused += l.outcome == "refused";
-  return BatchExit(static_cast<int64_t>(result.forgotten.size()), refused);
+  return BatchExit(static_cast<int64_t>(result.forgotten.size() + result.log_only.size()),
+                   refused);
 }
 
 }  // namespace

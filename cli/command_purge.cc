@@ -30,6 +30,7 @@ void PrintResult(const PurgeResult& r, const PurgeOptions& o,
     w.BeginObject().Key("before").String(before).Key("dry_run").Bool(o.dry_run);
     w.Key("purged").Int(r.entries).Key("texts").Int(r.texts).Key("sources").Int(
         r.sources);
+    w.Key("decisions").Int(r.decisions).Key("unreadable").Int(r.unreadable);
     w.Key("by").String(o.by).Key("queues").BeginArray();
     for (const PurgeResult::Queue& q : r.queues) {
       w.BeginObject().Key("queue").String(q.name).Key("purged").Int(q.entries);
@@ -38,10 +39,10 @@ void PrintResult(const PurgeResult& r, const PurgeOptions& o,
     Print(w.EndArray().EndObject().Take() + "\n");
   } else if (o.format == OutputFormat::kCsv) {
     Print(CsvRecordLine(
-        {"before", "dry_run", "purged", "texts", "sources", "by"}));
-    Print(CsvRecordLine({before, o.dry_run ? "true" : "false",
-                         std::to_string(r.entries), std::to_string(r.texts),
-                         std::to_string(r.sources), o.by}));
+        {"before", "dry_run", "purged", "texts", "sources", "decisions", "unreadable", "by"}));
+    Print(CsvRecordLine({before, o.dry_run ? "true" : "false", std::to_string(r.entries),
+                         std::to_string(r.texts), std::to_string(r.sources),
+                         std::to_string(r.decisions), std::to_string(r.unreadable), o.by}));
   } else {
     if (!r.queues.empty()) {
       TableWriter table(
@@ -62,6 +63,11 @@ void PrintResult(const PurgeResult& r, const PurgeOptions& o,
         std::to_string(r.sources) + " source paths " +
         (o.dry_run ? "would be " : "") + "erased); their counts stay learned" +
         (o.dry_run ? "; dry run, nothing was changed" : "; by " + o.by) + "\n");
+    if (r.decisions > 0 || r.unreadable > 0) {
+      Print(std::string(o.dry_run ? "would delete " : "deleted ") + std::to_string(r.decisions) +
+            " decision log rows and " + std::to_string(r.unreadable) +
+            " unreadable-file rows from before " + before + "\n");
+    }
   }
 }
 

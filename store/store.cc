@@ -335,6 +335,12 @@ Status Store::ReadCountsAndLedger(ModelCounts* counts,
 
 Status Store::Learn(const LearnBatch& batch, const ChangeInfo& change,
                     LearnResult* result) {
+  return LearnAsVersion(batch, {}, "learn", change, result);
+}
+
+Status Store::LearnAsVersion(const LearnBatch& batch, const std::vector<ReviewMark>& marks,
+                             const std::string& command, const ChangeInfo& change,
+                             LearnResult* result) {
   sql::Transaction tx(db_.get());
   if (!tx.status().ok()) {
     return Status::Busy(path_ + ": " + tx.status().message());
@@ -350,11 +356,12 @@ Status Store::Learn(const LearnBatch& batch, const ChangeInfo& change,
   const std::string now = change.now.empty() ? StoreClockNow() : change.now;
   Status s = LearnInTransaction(batch, now, result, &delta);
   if (!s.ok()) return s;
+  if (s = MarkReviewsInTransaction(marks, now); !s.ok()) return s;
   if (!delta.changes.empty()) {
-    s = RecordVersionInTransaction("learn", change, delta);
+    s = RecordVersionInTransaction(command, change, delta);
     if (!s.ok()) return s;
   }
-  FaultPoint("learn.before_commit");
+  FaultPoint(command == "learn" ? "learn.before_commit" : "review.before_commit");
   s = tx.Commit();
   if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   return Status::Ok();

@@ -174,6 +174,10 @@ struct CorrectResult {
 struct ForgetResult {
   std::vector<LedgerEntry> forgotten;  // in the order asked
   int64_t removed_terms = 0;           // terms whose count reached zero
+  // Digests asked for that were never learned but were in the decision log
+  // (routed into folders) or among unreadable files: erased from there.
+  std::vector<std::string> log_only;
+  int64_t decisions = 0;  // decision log rows erased (all digests)
   // False when other connections kept reading so long that the write-ahead
   // log could not be emptied (the old pages stay there until the next
   // checkpoint).
@@ -254,6 +258,10 @@ struct PurgeResult {
   int64_t entries = 0;
   int64_t texts = 0;
   int64_t sources = 0;
+  // Decision log rows decided before the cutoff, and unreadable files first
+  // seen before it: deleted whole (they hold paths).
+  int64_t decisions = 0;
+  int64_t unreadable = 0;
   // As ForgetResult::checkpointed; true in a dry run.
   bool checkpointed = false;
 };
@@ -366,8 +374,11 @@ class Store {
   // connection runs with PRAGMA secure_delete = ON, so freed content is
   // overwritten with zeros, and after the commit the write-ahead log is
   // checkpointed and truncated (PRAGMA wal_checkpoint(TRUNCATE)).
-  // REQUIRES: digests distinct. Fails, changing nothing, when one is not
-  // learned.
+  // Every decision log row and unreadable-file row of the digests goes too.
+  // A digest never learned but in the decision log or among unreadable
+  // files is erased from there (ForgetResult::log_only).
+  // REQUIRES: digests distinct. Fails, changing nothing, when one is in
+  // neither the ledger nor the log.
   Status Forget(const std::vector<std::string>& digests, const ChangeInfo& change,
                 ForgetResult* result);
 
@@ -501,7 +512,9 @@ class Store {
   Status ReadLedgerTexts(const std::function<Status(const LedgerText&)>& fn);
 
   // Erases the kept text and the source path (both set to NULL) of every
-  // ledger entry learned before `before`; counts, digests and queues stay,
+  // ledger entry learned before `before`, and deletes the decision log rows
+  // decided before it and unreadable files first seen before it (they hold
+  // paths); counts, digests and queues stay,
   // so the model and its version do not change. Runs as Forget does: with
   // PRAGMA secure_delete = ON, in one transaction, then a checkpoint that
   // empties the write-ahead log. With dry_run, only counts what would be
@@ -540,6 +553,12 @@ class Store {
   Status LearnReviewed(const LearnBatch& batch, const std::vector<ReviewMark>& marks,
                        const ChangeInfo& change, LearnResult* result);
 
+  // The digests of documents in the decision log or among unreadable files
+  // that a name stands for (as ResolveDocument, over the log: the digest, a
+  // source or destination path, a prefix), for forgetting documents that
+  // were routed but never learned. Distinct, at most 10.
+  Status FindLogged(const DocumentName& name, std::vector<std::string>* digests);
+
   // Unreadable files: remembered by path; Remember replaces an earlier row
   // of the same path (the file changed). Find gives nullopt when unknown.
   Status RememberUnreadable(const UnreadableFile& file);
@@ -558,6 +577,13 @@ class Store {
  private:
   Store(std::string path, sql::DbHandle db);
   Status LoadSettings();
+  // Learn, and LearnReviewed with its marks: one transaction, one version
+  // named `command`.
+  Status LearnAsVersion(const LearnBatch& batch, const std::vector<ReviewMark>& marks,
+                        const std::string& command, const ChangeInfo& change,
+                        LearnResult* result);
+  // Writes review marks (decision_log.h) inside the caller's transaction.
+  Status MarkReviewsInTransaction(const std::vector<ReviewMark>& marks, const std::string& now);
   // The bodies of Learn and Correct, inside a transaction the caller holds.
   // Adds the version's members and changes to *delta.
   Status LearnInTransaction(const LearnBatch& batch, const std::string& now,

@@ -481,6 +481,22 @@ Status Store::Forget(const std::vector<std::string>& digests,
     sql::Statement unlog(db, "DELETE FROM changes WHERE document = ?");
     if (!remove.ok() || !unlog.ok())
       return Status::IoError(path_ + ": " + remove.error() + unlog.error());
+    // The decision log and the unreadable files keep paths and digests.
+    sql::Statement undecide(db, "DELETE FROM decisions WHERE digest = ?");
+    sql::Statement unread(db, "DELETE FROM unreadable WHERE digest = ?");
+    if (!undecide.ok() || !unread.ok())
+      return Status::IoError(path_ + ": " + undecide.error() + unread.error());
+    auto erase_log = [&](const std::string& digest, bool* any) -> Status {
+      undecide.Reset();
+      Status e = undecide.Bind(1, digest).Run();
+      if (!e.ok()) return e;
+      const int64_t decided = sqlite3_changes(db);
+      result->decisions += decided;
+      unread.Reset();
+      if (e = unread.Bind(1, digest).Run(); !e.ok()) return e;
+      *any = decided > 0 || sqlite3_changes(db) > 0;
+      return Status::Ok();
+    };
     VersionDelta delta;
     std::vector<int64_t> erased;
     // The documents' counts are summed and taken out at the end, each
@@ -491,8 +507,13 @@ Status Store::Forget(const std::vector<std::string>& digests,
       bool found = false;
       s = ledger.ByDigest(digest, &doc, &found);
       if (!s.ok()) return s;
-      if (!found)
-        return Status::NotFound(path_ + ": " + digest + " is not learned");
+      bool logged = false;
+      if (s = erase_log(digest, &logged); !s.ok()) return s;
+      if (!found) {
+        if (!logged) return Status::NotFound(path_ + ": " + digest + " is not learned");
+        result->log_only.push_back(digest);
+        continue;
+      }
       if (doc.entry.in_model) {
         counts.Add(doc.queue_id, doc, -1);
         ++delta.removed;
@@ -519,9 +540,12 @@ Status Store::Forget(const std::vector<std::string>& digests,
     if (!s.ok()) return s;
     if (s = EraseFromSnapshotsInTransaction(erased); !s.ok()) return s;
     if (s = EraseFromCandidateInTransaction(erased); !s.ok()) return s;
-    // The version records how many documents left, never which.
-    s = RecordVersionInTransaction("forget", change, delta);
-    if (!s.ok()) return s;
+    // The version records how many documents left, never which. Erasing
+    // only decision log rows does not change the model: no version.
+    if (!erased.empty()) {
+      s = RecordVersionInTransaction("forget", change, delta);
+      if (!s.ok()) return s;
+    }
     FaultPoint("forget.before_commit");
     s = tx.Commit();
     if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());

@@ -94,6 +94,15 @@ Status Store::Purge(const std::string& before, bool dry_run,
       result->queues.push_back(std::move(q));
     }
     if (rc != SQLITE_DONE) return sql::ErrorStatus(db, path_);
+    for (auto [query, n] : {std::pair{"SELECT COUNT(*) FROM decisions WHERE time < ?", &result->decisions},
+                          std::pair{"SELECT COUNT(*) FROM unreadable WHERE first_seen < ?",
+                                    &result->unreadable}}) {
+      sql::Statement c(db, query);
+      if (!c.ok()) return Status::IoError(path_ + ": " + c.error());
+      c.Bind(1, before);
+      if (c.Step() != SQLITE_ROW) return sql::ErrorStatus(db, path_);
+      *n = c.ColumnInt(0);
+    }
     return Status::Ok();
   };
   if (dry_run) {
@@ -124,9 +133,14 @@ Status Store::Purge(const std::string& before, bool dry_run,
                              " ledger entries, not the " +
                              std::to_string(result->entries) + " it counted");
     }
-    // The decision log (a later part of issue 4) keeps the paths of routed
-    // documents: when it lands, purge erases its entries older than
-    // `before` here, in this same transaction.
+    // The decision log and the unreadable files keep paths: their rows
+    // older than the cutoff go whole.
+    for (const char* query : {"DELETE FROM decisions WHERE time < ?",
+                              "DELETE FROM unreadable WHERE first_seen < ?"}) {
+      sql::Statement del(db, query);
+      if (!del.ok()) return Status::IoError(path_ + ": " + del.error());
+      if (s = del.Bind(1, before).Run(); !s.ok()) return s;
+    }
     s = tx.Commit();
     if (!s.ok()) return Status::IoError(path_ + ": commit: " + s.message());
   }

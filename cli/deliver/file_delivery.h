@@ -13,12 +13,19 @@
 //    sequences, to make room).
 //  - Never overwriting: on one filesystem, renameat2(RENAME_NOREPLACE),
 //    falling back to link() + unlink() where the filesystem does not support
-//    it (EINVAL/ENOSYS); across filesystems (EXDEV), or when the test-only
-//    environment variable CHUTE_TEST_FORCE_COPY=1 is set, the bytes are
-//    copied to ".chute-tmp-<random>" inside the destination folder, the
-//    file and the folder are fsync'ed, the copy is linked under its name
-//    without replacing (link(), EEXIST -> next name), the temporary name
-//    removed, and only then the source removed.
+//    it (EINVAL/ENOSYS/EOPNOTSUPP; the test-only CHUTE_TEST_NO_RENAMEAT2=1
+//    takes this fallback everywhere); EEXIST -> next name. Across
+//    filesystems (EXDEV), or when the test-only environment variable
+//    CHUTE_TEST_FORCE_COPY=1 is set, the bytes are copied to
+//    ".chute-tmp-<random>" inside the destination folder and the file
+//    fsync'ed; the copy takes its name without replacing (the same rename,
+//    or link() + unlink() of the temporary name; EEXIST -> next name), the
+//    folder is fsync'ed, and only then the source removed (and its folder
+//    fsync'ed). A source that changed while it was copied (size or mtime)
+//    is left where it is and the delivery fails. Copies keep the source's
+//    atime and mtime. The same-filesystem rename is not followed by an
+//    fsync: it is atomic, so a crash leaves the file in one place or the
+//    other; after a power loss the filesystem's journal decides which.
 //  - --copy: as the cross-filesystem path, without removing the source.
 //    --link: a hard link (link(), next name on EEXIST); EXDEV is refused.
 //
@@ -51,9 +58,21 @@ Status PrepareDestinationRoot(const std::string& root, bool create_root,
 Status ChooseDestination(const std::string& absolute_root, const std::string& folder,
                          const std::string& name, std::string* destination);
 
+// The n-th name Deliver tries for `name` (n >= 1): n = 1 is the name
+// itself; n >= 2 puts "-n" before the extension, the part from the last '.'
+// on ("report.pdf" -> "report-2.pdf", "a.tar.gz" -> "a.tar-2.gz"); a name
+// with no '.' or whose only '.' is its first byte (".notes") gets "-n" at
+// its end. When the result would be longer than name_max bytes, the part
+// before the extension is shortened (to at least one byte; else the whole
+// name is shortened and "-n" goes at its end), cutting between whole UTF-8
+// sequences when the name is valid UTF-8 and anywhere otherwise. Pure.
+std::string NumberedName(const std::string& name, int64_t n, size_t name_max);
+
 struct Delivered {
   std::string destination;  // absolute path the document now has
-  bool crossed_filesystems = false;  // bytes were copied (move across fs)
+  // A move whose bytes were copied: across filesystems, or forced onto the
+  // copy path by CHUTE_TEST_FORCE_COPY=1. False for --copy and --link.
+  bool crossed_filesystems = false;
 };
 
 // Delivers `source` (a regular file, not followed if it is a symbolic

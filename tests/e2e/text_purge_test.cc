@@ -179,8 +179,8 @@ TEST_F(TextPurgeTest, PurgeErasesOlderTextsAndPathsAndRoutesAsBefore) {
   RunResult dry = Chute({"purge", "--db", "s.db", "--older-than", late,
                          "--dry-run", "--by", "tester", "--format", "csv"});
   ASSERT_EQ(dry.exit_code, 0) << dry.err;
-  EXPECT_EQ(dry.out, "before,dry_run,purged,texts,sources,by\r\n" + late +
-                         ",true,6,6,6,tester\r\n");
+  EXPECT_EQ(dry.out, "before,dry_run,purged,texts,sources,decisions,unreadable,by\r\n" + late +
+                         ",true,6,6,6,0,0,tester\r\n");
   EXPECT_EQ(Count("SELECT COUNT(*) FROM ledger WHERE text IS NULL"), 0);
 
   RunResult r = Chute({"purge", "--db", "s.db", "--older-than", late, "--by",
