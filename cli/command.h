@@ -39,6 +39,7 @@ CommandRun SetupPromote(CLI::App* command);
 CommandRun SetupPurge(CLI::App* command);
 CommandRun SetupVersions(CLI::App* command);
 CommandRun SetupRollback(CLI::App* command);
+CommandRun SetupLog(CLI::App* command);
 
 }  // namespace chute
 

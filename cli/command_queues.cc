@@ -1,5 +1,6 @@
-// chute queues: the queues with their documents, terms and priors, and the
-// store's settings; sets or clears a queue's prior by hand.
+// chute queues: the queues with their documents, terms, priors and routing
+// rules, and the store's settings; sets or clears a queue's prior by hand,
+// its review threshold and its minimum of learned documents.
 #include <CLI/CLI.hpp>
 
 #include <cmath>
@@ -26,7 +27,67 @@ struct QueuesOptions {
   std::string by;
   std::vector<std::string> rename;  // from, to
   std::string merge, into, retire, add;
+  std::vector<std::string> set_threshold;      // queue, value or "none"
+  std::vector<std::string> set_min_documents;  // queue, value or "none"
 };
+
+// The routing rules (--set-threshold, --set-min-documents): not changes of
+// the model, so no version. Returns an exit code, or -1 when none was
+// asked for.
+int ApplyRoutingRules(const QueuesOptions& o, Store* store) {
+  if (!o.set_threshold.empty()) {
+    const std::string& queue = o.set_threshold[0];
+    const std::string& v = o.set_threshold[1];
+    std::optional<double> t;
+    if (v != "none") {
+      double p = 0;
+      try {
+        size_t used = 0;
+        p = std::stod(v, &used);
+        if (used != v.size()) throw std::invalid_argument("trailing");
+      } catch (const std::exception&) {
+        Report("queues", "--set-threshold " + queue + ": '" + v +
+                             "' is not a number (or 'none' to clear it)");
+        return kExitUsage;
+      }
+      if (!(p > 0 && p <= 1)) {
+        Report("queues", "--set-threshold " + queue + ": a threshold lies in (0, 1]");
+        return kExitUsage;
+      }
+      t = p;
+    }
+    if (Status s = store->SetQueueThreshold(queue, t); !s.ok()) {
+      Report("queues", s.message());
+      return kExitFailed;
+    }
+  }
+  if (!o.set_min_documents.empty()) {
+    const std::string& queue = o.set_min_documents[0];
+    const std::string& v = o.set_min_documents[1];
+    std::optional<int64_t> n;
+    if (v != "none") {
+      int64_t m = -1;
+      try {
+        size_t used = 0;
+        m = std::stoll(v, &used);
+        if (used != v.size()) throw std::invalid_argument("trailing");
+      } catch (const std::exception&) {
+        m = -1;
+      }
+      if (m < 0) {
+        Report("queues", "--set-min-documents " + queue + ": '" + v +
+                             "' is not a whole number >= 0 (or 'none' to clear it)");
+        return kExitUsage;
+      }
+      n = m;
+    }
+    if (Status s = store->SetQueueMinDocuments(queue, n); !s.ok()) {
+      Report("queues", s.message());
+      return kExitFailed;
+    }
+  }
+  return -1;
+}
 
 // --rename, --merge/--into, --retire, --add: one change, reported in one
 // line on stdout (table) or stderr; returns an exit code, or -1 when no
@@ -119,6 +180,7 @@ int RunQueues(const QueuesOptions& o) {
   std::unique_ptr<Store> store;
   if (!OpenStoreOrReport("queues", o.db, &store)) return kExitFailed;
   if (int code = ApplyQueueChange(o, store.get()); code > 0) return code;
+  if (int code = ApplyRoutingRules(o, store.get()); code >= 0) return code;
   if (!o.set_prior.empty()) {
     const std::string& queue = o.set_prior[0];
     double p = 0;
@@ -154,6 +216,17 @@ int RunQueues(const QueuesOptions& o) {
     return kExitFailed;
   }
   if (o.settings) return PrintSettings(store->settings(), vocabulary, o.format);
+  std::vector<QueuePolicy> policy_list;
+  if (Status p = store->QueuePolicies(&policy_list); !p.ok()) {
+    Report("queues", p.message());
+    return kExitFailed;
+  }
+  auto policy_of = [&](const std::string& name) -> QueuePolicy {
+    for (const QueuePolicy& p : policy_list) {
+      if (p.name == name) return p;
+    }
+    return QueuePolicy{};
+  };
 
   // The prior each queue routes with (queues without documents have none).
   std::vector<QueueCounts> routed;
@@ -180,17 +253,26 @@ int RunQueues(const QueuesOptions& o) {
       p ? w.Number(*p) : w.Null();
       w.Key("prior_source").String(q.retired ? "retired" : q.set_prior ? "set" : mode);
       w.Key("retired").Bool(q.retired);
+      const QueuePolicy rule = policy_of(q.name);
+      w.Key("threshold");
+      rule.threshold ? w.Number(*rule.threshold) : w.Null();
+      w.Key("min_documents");
+      rule.min_documents ? w.Int(*rule.min_documents) : w.Null();
       Print(w.EndObject().Take() + "\n");
     }
     return kExitDone;
   }
   if (o.format == OutputFormat::kCsv) {
-    Print(CsvRecordLine({"queue", "documents", "tokens", "distinct_terms", "prior", "prior_source"}));
+    Print(CsvRecordLine({"queue", "documents", "tokens", "distinct_terms", "prior", "prior_source",
+                         "threshold", "min_documents"}));
     for (const QueueInfo& q : queues) {
       auto p = prior_of(q.name);
+      const QueuePolicy rule = policy_of(q.name);
       Print(CsvRecordLine({q.name, std::to_string(q.documents), std::to_string(q.tokens),
                            std::to_string(q.distinct_terms), p ? FormatShortest(*p) : "",
-                           q.retired ? "retired" : q.set_prior ? "set" : mode}));
+                           q.retired ? "retired" : q.set_prior ? "set" : mode,
+                           rule.threshold ? FormatShortest(*rule.threshold) : "",
+                           rule.min_documents ? std::to_string(*rule.min_documents) : ""}));
     }
     return kExitDone;
   }
@@ -206,12 +288,17 @@ int RunQueues(const QueuesOptions& o) {
                  {"tokens", TableWriter::Align::kRight},
                  {"distinct terms", TableWriter::Align::kRight},
                  {"prior", TableWriter::Align::kRight},
-                 {"prior from"}});
+                 {"prior from"},
+                 {"review below", TableWriter::Align::kRight},
+                 {"min documents", TableWriter::Align::kRight}});
   for (const QueueInfo& q : queues) {
     auto p = prior_of(q.name);
+    const QueuePolicy rule = policy_of(q.name);
     t.AddRow({q.name, std::to_string(q.documents), std::to_string(q.tokens),
               std::to_string(q.distinct_terms), p ? FormatFixed(*p, 4) : "-",
-              q.retired ? "retired" : q.set_prior ? "set by hand" : mode});
+              q.retired ? "retired" : q.set_prior ? "set by hand" : mode,
+              rule.threshold ? FormatShortest(*rule.threshold) : "-",
+              rule.min_documents ? std::to_string(*rule.min_documents) : "-"});
   }
   Print(t.Render());
   return kExitDone;
@@ -241,6 +328,16 @@ CommandRun SetupQueues(CLI::App* cmd) {
       ->type_name("A");
   cmd->add_option("--add", o->add, "Q: a new queue, routed to once it has learned documents")
       ->type_name("Q");
+  cmd->add_option("--set-threshold", o->set_threshold,
+                  "QUEUE P: route --into and watch send this queue's documents below confidence "
+                  "P (0 < P <= 1) to review; 'none' clears it (--hold-below overrides it)")
+      ->expected(2)
+      ->type_name("QUEUE P");
+  cmd->add_option("--set-min-documents", o->set_min_documents,
+                  "QUEUE N: hold this queue's documents for review while it has learned fewer "
+                  "than N documents; 'none' clears it")
+      ->expected(2)
+      ->type_name("QUEUE N");
   cmd->footer(R"(Examples:
   chute queues
   chute queues --format jsonl
@@ -250,8 +347,13 @@ CommandRun SetupQueues(CLI::App* cmd) {
   chute queues --merge pilotage --into berth-bookings --by ops-lead
   chute queues --retire old-forms
   chute queues --add hazardous-cargo
+  chute queues --set-threshold customs 0.95
+  chute queues --set-min-documents hazardous-cargo 20
+  chute queues --set-threshold customs none
 
-Every change is a version (see 'chute versions'); 'chute rollback' undoes it.)");
+Every change of the queues or priors is a version (see 'chute versions');
+'chute rollback' undoes it. Thresholds and minimums are routing rules,
+not part of the model: they make no version.)");
   return [o] { return RunQueues(*o); };
 }
 

@@ -1,11 +1,18 @@
-// chute route: the queue of each document, with its posterior.
+// chute route: the queue of each document, with its posterior; with
+// --into, also delivers each document into its queue's folder (or the
+// review folder) and logs the decision (cli/deliver/folder_router.h).
 #include <CLI/CLI.hpp>
+
+#include <chrono>
+#include <filesystem>
 
 #include "classify/model.h"
 #include "cli/command.h"
 #include "cli/common_options.h"
+#include "cli/deliver/folder_router.h"
 #include "cli/exit_code.h"
 #include "cli/format/csv_writer.h"
+#include "cli/format/decision_lines.h"
 #include "cli/format/json_writer.h"
 #include "cli/format/number.h"
 #include "cli/format/progress.h"
@@ -27,7 +34,184 @@ struct RouteOptions {
   int64_t max_bytes = kDefaultMaxBytes;
   size_t threads = 1;
   int64_t at_version = 0;
+  // Routing into folders (--into and the options that go with it).
+  std::string into;
+  bool move = false, copy = false, link = false;
+  bool again = false, dry_run = false, set_aside = false;
+  std::optional<double> hold_below;
+  double audit_share = 0;
+  std::optional<uint64_t> audit_seed;
+  std::string by;
+  // Options given on the command line, to tell a default from a choice.
+  std::vector<std::pair<std::string, CLI::Option*>> into_only;
+  CLI::Option* top_option = nullptr;
+  CLI::Option* at_version_option = nullptr;
 };
+
+// The destination below DEST, for a person: "billing/0001.txt".
+std::string BelowRoot(const std::string& path, const std::string& root) {
+  if (!root.empty() && path.compare(0, root.size(), root) == 0 && path.size() > root.size() &&
+      path[root.size()] == '/') {
+    return path.substr(root.size() + 1);
+  }
+  return path;
+}
+
+int RunRouteInto(const RouteOptions& o) {
+  const int modes = o.move + o.copy + o.link;
+  if (modes != 1) {
+    Report("route", modes == 0 ? "--into needs one of --move, --copy or --link"
+                               : "--move, --copy and --link exclude each other: choose one");
+    return kExitUsage;
+  }
+  if (o.top_option->count() > 0 || o.at_version_option->count() > 0) {
+    Report("route", std::string(o.top_option->count() > 0 ? "--top" : "--at-version") +
+                        " is for route without --into (folders are routed with the current "
+                        "model)");
+    return kExitUsage;
+  }
+  if (o.inputs.empty()) {
+    Report("route", "nothing to route: name the inbox folder or files");
+    return kExitUsage;
+  }
+  for (const std::string& in : o.inputs) {
+    if (in == "-") {
+      Report("route", "standard input cannot be delivered into a folder: name files or folders");
+      return kExitUsage;
+    }
+  }
+  // DEST inside an input folder would have its documents routed again.
+  {
+    auto canonical = [](const std::string& p, std::string* out) {
+      std::error_code ec;
+      std::string c = std::filesystem::weakly_canonical(p, ec).lexically_normal().string();
+      while (c.size() > 1 && c.back() == '/') c.pop_back();
+      *out = c;
+      return !ec;
+    };
+    std::string dest, folder;
+    for (const std::string& in : o.inputs) {
+      std::error_code ec;
+      if (!std::filesystem::is_directory(in, ec) || !canonical(o.into, &dest) ||
+          !canonical(in, &folder)) {
+        continue;
+      }
+      if (dest == folder || dest.rfind(folder == "/" ? "/" : folder + "/", 0) == 0) {
+        Report("route", "--into " + o.into + " lies inside the input folder " + in +
+                            ": its documents would be routed again; choose a DEST outside it");
+        return kExitUsage;
+      }
+    }
+  }
+  FolderRouteOptions fo;
+  fo.into = o.into;
+  fo.mode = o.move ? DeliveryMode::kMove : o.copy ? DeliveryMode::kCopy : DeliveryMode::kLink;
+  fo.again = o.again;
+  fo.dry_run = o.dry_run;
+  fo.set_aside = o.set_aside;
+  fo.hold_below = o.hold_below;
+  fo.audit_share = o.audit_share;
+  // A seed from the clock unless one is given; printed so that the same
+  // draw can be made again.
+  fo.audit_seed = o.audit_seed ? *o.audit_seed
+                               : static_cast<uint64_t>(
+                                     std::chrono::system_clock::now().time_since_epoch().count());
+  fo.by = o.by;
+  fo.threads = o.threads;
+  fo.max_bytes = o.max_bytes;
+
+  std::unique_ptr<Store> store;
+  if (!OpenStoreOrReport("route", o.db, &store)) return kExitFailed;
+
+  int64_t refused = 0;
+  std::string root;  // DEST as the router resolved it, for the table
+  TableWriter table({{"file"},
+                     {"queue"},
+                     {"confidence", TableWriter::Align::kRight},
+                     {"runner-up"},
+                     {"its posterior", TableWriter::Align::kRight},
+                     {"held"},
+                     {(o.dry_run ? "would go to (below " : "now at (below ") + o.into + ")"}});
+  if (o.format == OutputFormat::kCsv) Print(DecisionCsvHeader());
+  auto report = [&](const RoutedDocument& d) {
+    using Outcome = RoutedDocument::Outcome;
+    switch (d.outcome) {
+      case Outcome::kDelivered:
+      case Outcome::kWouldDeliver: {
+        if (!d.reason.empty()) Report("route", d.path + ": " + d.reason);
+        const DecisionRecord& r = d.record;
+        if (o.format == OutputFormat::kJsonl) {
+          Print(DecisionJsonLine(r));
+        } else if (o.format == OutputFormat::kCsv) {
+          Print(DecisionCsvLine(r));
+        } else {
+          table.AddRow({d.path, r.queue, FormatFixed(r.confidence, 3), r.runner_up,
+                        r.runner_up_posterior ? FormatFixed(*r.runner_up_posterior, 3) : "",
+                        std::string(HeldName(r.held)), BelowRoot(r.destination, root)});
+        }
+        break;
+      }
+      case Outcome::kSkipped:
+        break;  // counted in the summary
+      case Outcome::kUnreadable:
+        Report("route", d.path + ": " + d.reason +
+                            (d.record.destination.empty()
+                                 ? ""
+                                 : std::string(o.dry_run ? "; would be set aside at "
+                                                         : "; set aside at ") +
+                                       d.record.destination));
+        ++refused;
+        break;
+      case Outcome::kFailed:
+        Report("route", d.path + ": " + d.reason);
+        ++refused;
+        break;
+    }
+  };
+
+  FolderRouteTally tally;
+  std::unique_ptr<FolderRouter> router;
+  Status s = FolderRouter::Open(store.get(), fo, &router, &tally, report);
+  if (s.ok()) {
+    root = router->root();  // tables show paths below it
+    // The inputs are listed once the deliveries an interrupted run left
+    // were finished (those files have left the inbox).
+    std::vector<InputFile> files;
+    std::vector<WalkProblem> problems;
+    WalkInputs(o.inputs, &files, &problems);
+    for (const WalkProblem& p : problems) {
+      Report("route", p.path + ": " + p.reason);
+      ++refused;
+    }
+    s = router->Route(files, report, &tally);
+  }
+  if (!s.ok()) {
+    Report("route", s.message());
+    return kExitFailed;
+  }
+  if (o.format == OutputFormat::kTable) Print(table.Render());
+  const bool seeded_by_clock = !o.audit_seed && o.audit_share > 0;
+  if (o.format == OutputFormat::kTable) {
+    std::string line = std::string(o.dry_run ? "dry run, nothing moved or logged: would deliver "
+                                             : "delivered ") +
+                       std::to_string(tally.delivered) + " (held for review " +
+                       std::to_string(tally.held) + ", audit " + std::to_string(tally.audit) +
+                       "), skipped " + std::to_string(tally.skipped) + ", unreadable " +
+                       std::to_string(tally.unreadable) + ", failed " +
+                       std::to_string(tally.failed);
+    if (tally.finished_pending > 0) {
+      line += "; " + std::to_string(tally.finished_pending) +
+              " deliveries of an interrupted run finished";
+    }
+    if (o.audit_share > 0) line += "; audit seed " + std::to_string(fo.audit_seed);
+    line += "; model version " + std::to_string(router->model_version());
+    Report("route", line);
+  } else if (seeded_by_clock) {
+    Report("route", "audit seed " + std::to_string(fo.audit_seed) +
+                        " (from the clock; --audit-seed repeats the draw)");
+  }
+  return refused > 0 ? kExitSomeRefused : kExitDone;
+}
 
 std::string JsonLine(const std::string& file, const Model& model, const VersionInfo& version,
                      const Decision& d, int top) {
@@ -55,6 +239,13 @@ std::string JsonLine(const std::string& file, const Model& model, const VersionI
 }
 
 int RunRoute(const RouteOptions& o) {
+  if (!o.into.empty()) return RunRouteInto(o);
+  for (const auto& [name, option] : o.into_only) {
+    if (option->count() > 0) {
+      Report("route", name + " goes with --into DEST");
+      return kExitUsage;
+    }
+  }
   if (o.inputs.empty()) {
     Report("route", "nothing to route: name files, folders, or - for standard input");
     return kExitUsage;
@@ -167,14 +358,57 @@ CommandRun SetupRoute(CLI::App* cmd) {
   AddDbOption(cmd, &o->db);
   cmd->add_option("inputs", o->inputs, "files, folders (walked recursively), or - for standard input");
   AddFormatOption(cmd, &o->format);
-  cmd->add_option("--top", o->top, "queues listed per document in jsonl (default 3)")
-      ->check(CLI::PositiveNumber);
+  o->top_option = cmd->add_option("--top", o->top, "queues listed per document in jsonl (default 3)")
+                      ->check(CLI::PositiveNumber);
   AddMaxBytesOption(cmd, &o->max_bytes);
   AddThreadsOption(cmd, &o->threads);
-  cmd->add_option("--at-version", o->at_version,
-                  "V: route with the model of an earlier version (read-only; see 'chute versions')")
-      ->check(CLI::PositiveNumber)
-      ->type_name("V");
+  o->at_version_option =
+      cmd->add_option("--at-version", o->at_version,
+                      "V: route with the model of an earlier version (read-only; see 'chute "
+                      "versions')")
+          ->check(CLI::PositiveNumber)
+          ->type_name("V");
+  cmd->add_option("--into", o->into,
+                  "DEST: deliver each document into DEST/<queue>/ (unsure ones into "
+                  "DEST/_review/) and log the decision")
+      ->type_name("DEST");
+  auto into_only = [&](const std::string& name, CLI::Option* opt) {
+    o->into_only.emplace_back(name, opt);
+  };
+  into_only("--move", cmd->add_flag("--move", o->move, "with --into: move the documents"));
+  into_only("--copy", cmd->add_flag("--copy", o->copy,
+                                    "with --into: copy them (documents copied before are skipped)"));
+  into_only("--link", cmd->add_flag("--link", o->link,
+                                    "with --into: hard-link them (same filesystem only; linked "
+                                    "before are skipped)"));
+  into_only("--again", cmd->add_flag("--again", o->again,
+                                     "with --copy/--link: deliver documents delivered before too"));
+  into_only("--dry-run", cmd->add_flag("--dry-run", o->dry_run,
+                                       "with --into: show the decisions; move and log nothing"));
+  into_only("--hold-below",
+            cmd->add_option("--hold-below", o->hold_below,
+                            "P: send documents whose confidence is below P to the review "
+                            "folder (overrides every queue's own threshold)")
+                ->check(CLI::Range(0.0, 1.0))
+                ->type_name("P"));
+  into_only("--audit-share",
+            cmd->add_option("--audit-share", o->audit_share,
+                            "S: also send this share (0 to 1) of the documents routed "
+                            "automatically to review, marked audit")
+                ->check(CLI::Range(0.0, 1.0))
+                ->type_name("S"));
+  into_only("--audit-seed",
+            cmd->add_option("--audit-seed", o->audit_seed,
+                            "N: the seed of the audit draw (default: from the clock, printed)")
+                ->type_name("N"));
+  into_only("--set-aside", cmd->add_flag("--set-aside", o->set_aside,
+                                         "with --into: move unreadable documents to "
+                                         "DEST/_unreadable/"));
+  into_only("--by", cmd->add_option("--by", o->by,
+                                    "NAME: who routes, recorded in the log (default: your login "
+                                    "name)")
+                        ->type_name("NAME"));
+  o->by = LoginName();
   cmd->footer(R"(Confidence is the posterior probability of the chosen queue. Naive Bayes
 is often over-confident: have a person review documents below a threshold
 you have measured (see README, "Cautions").
@@ -183,7 +417,17 @@ Examples:
   chute route corpora/port-authority/inbox/
   chute route letter.txt --format jsonl --top 3
   chute route letter.txt --at-version 41
-  cat scan.txt | chute route - --format csv)");
+  cat scan.txt | chute route - --format csv
+
+Routing into folders (the decision is logged first, then the file moved;
+nothing is overwritten; see 'chute log'):
+  chute route inbox/ --into routed/ --move
+  chute route inbox/ --into routed/ --move --hold-below 0.9 --audit-share 0.02
+  chute route inbox/ --into routed/ --copy --dry-run
+Queue folders are DEST/<queue>/; DEST/_review/ holds the documents held for
+review (below the threshold, no known terms, a queue with too few learned
+documents, or drawn for the audit sample); DEST/_unreadable/ those set aside
+with --set-aside.)");
   return [o] { return RunRoute(*o); };
 }
 

@@ -36,6 +36,8 @@ constexpr chute::Command kCommands[] = {
      chute::SetupVersions},
     {"rollback", "make the model an earlier version's again (itself a new version)",
      chute::SetupRollback},
+    {"log", "the decisions route --into and watch delivered: where each document went, and why",
+     chute::SetupLog},
     {"queues", "list the queues, their documents, terms and priors; set priors",
      chute::SetupQueues},
     {"terms-of", "print the terms chute counts for a document", chute::SetupTermsOf},

@@ -23,6 +23,7 @@
 #include <string>
 #include <vector>
 
+#include "cli/read/document_reader.h"
 #include "cli/read/input_walker.h"
 #include "store/decision_log.h"
 #include "store/status.h"
@@ -45,7 +46,7 @@ struct FolderRouteOptions {
   uint64_t audit_seed = 0;
   std::string by;
   size_t threads = 1;
-  int64_t max_bytes = 0;  // cli/read/document_reader.h
+  int64_t max_bytes = kDefaultMaxBytes;  // larger documents are unreadable
 };
 
 // What happened to one input.
@@ -53,7 +54,9 @@ struct RoutedDocument {
   enum class Outcome {
     kDelivered,     // record describes the decision (destination final)
     kWouldDeliver,  // dry run: record as it would be logged
-    kSkipped,       // --copy/--link: delivered before (reason says so)
+    kSkipped,       // --copy/--link: delivered before; or unreadable before
+                    // and unchanged since (not read again, not reported
+                    // again); the reason says which
     kUnreadable,    // reason; record.destination set when set aside
     kFailed,        // could not be delivered (reason); the file is untouched
   };
@@ -72,9 +75,14 @@ class FolderRouter {
  public:
   // Loads the current model and the queues' rules, prepares DEST, finishes
   // the deliveries an earlier run left unfinished (PendingDeliveries ->
-  // FinishPending) and removes its temporary files.
+  // FinishPending) and removes its temporary files. Each pending delivery
+  // is given to report (when set): kDelivered once finished (the reason
+  // says it was an earlier run's), kFailed when the document was found in
+  // neither place (its row is dropped) or could not be finished (its row
+  // stays for the next run). A dry run finishes nothing.
   static Status Open(Store* store, const FolderRouteOptions& options,
-                     std::unique_ptr<FolderRouter>* out, FolderRouteTally* tally);
+                     std::unique_ptr<FolderRouter>* out, FolderRouteTally* tally,
+                     const std::function<void(const RoutedDocument&)>& report = {});
 
   // Loads the model again when the store has a newer version; *reloaded
   // says whether it did. Cheap when nothing changed (one short read).
@@ -82,13 +90,20 @@ class FolderRouter {
 
   // Routes files in order, calling report for each as soon as it is done
   // (in input order). Fails only when the store fails (a document that
-  // cannot be read or delivered is an outcome, not a failure).
+  // cannot be read or delivered is an outcome, not a failure). Documents
+  // are delivered in batches (512; for tests, the environment variable
+  // CHUTE_TEST_DELIVERY_BATCH sets the size) on a thread of their own
+  // while the next batch is read and decided: report is called on that
+  // thread, never two calls at once, and every call has returned when
+  // Route returns.
   Status Route(const std::vector<InputFile>& files,
                const std::function<void(const RoutedDocument&)>& report,
                FolderRouteTally* tally);
 
   int64_t model_version() const;
   const std::string& fingerprint() const;
+  // DEST, absolute and symlink-free (as the log records destinations).
+  const std::string& root() const;
 
   ~FolderRouter();
 
