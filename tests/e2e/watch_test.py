@@ -167,17 +167,6 @@ def sha(data):
     return hashlib.sha256(data).hexdigest()
 
 
-def files_below(root):
-    """{relative path: bytes} of every file below root."""
-    out = {}
-    for folder, _, names in os.walk(root):
-        for n in names:
-            p = os.path.join(folder, n)
-            with open(p, "rb") as f:
-                out[os.path.relpath(p, root)] = f.read()
-    return out
-
-
 def check_burst(tmp, seed, count, prefix, decisions, label):
     """Each document of the burst routed once, whole; returns nothing."""
     inbox = os.path.join(tmp, "inbox")
@@ -268,7 +257,7 @@ def run(a):
         for n in left:
             with open(os.path.join(inbox, n), "rb") as f:
                 expect(f.read().startswith(b"never renamed "), "dot file %s changed" % n)
-        routed_files = files_below(os.path.join(tmp, "routed"))
+        routed_files = rl.files_below(os.path.join(tmp, "routed"))
         temps = [p for p in routed_files if os.path.basename(p).startswith(".")]
         expect(not temps, "temporary files left in DEST: %s" % temps[:3])
         expect(len(routed_files) == n1, "%d files in DEST for %d documents"
@@ -290,8 +279,8 @@ def run(a):
               % (w.count(), n2, rc, stop_seconds))
         expect(producer.wait(300) == 0, "the producer failed")
         # Every document is in the inbox or in exactly one destination.
-        inbox_files = {n: b for n, b in files_below(inbox).items() if not n.startswith(".")}
-        routed_files = files_below(os.path.join(tmp, "routed"))
+        inbox_files = {n: b for n, b in rl.files_below(inbox).items() if not n.startswith(".")}
+        routed_files = rl.files_below(os.path.join(tmp, "routed"))
         by_bytes = {}
         for p, b in routed_files.items():
             by_bytes.setdefault(b, []).append(p)
@@ -354,7 +343,7 @@ def copy_and_folders(chute, tmp):
     expect(below == sorted(["old/o%d.txt" % i for i in range(5)] +
                            ["day/late/n%d.txt" % i for i in range(5, 10)]),
            "copy: routed %s" % below)
-    expect(len(files_below(box)) == 10, "copy: the inbox lost files")
+    expect(len(rl.files_below(box)) == 10, "copy: the inbox lost files")
     # A restart finds the ten again and skips them; one written again goes.
     w = Watch(chute, *args)
     expect(w.wait_for(lambda: any("watching" in l for l in w.stderr), 30), "no restart")
