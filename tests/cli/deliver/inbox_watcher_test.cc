@@ -109,6 +109,15 @@ TEST_F(InboxWatcherTest, AFileClosedAfterWritingIsHandedOutOnce) {
   EXPECT_EQ(watcher_->stats().handed_out, 2);
 }
 
+TEST_F(InboxWatcherTest, AHardLinkMadeToAFileHandedOutDoesNotHandItOutAgain) {
+  Open(false, nullptr, kRescan);
+  Write(inbox_ / "linked.txt", "delivered by a hard link");
+  EXPECT_EQ(NextBatch(milliseconds(5000)), Names{"linked.txt"});
+  // What `watch --link` does: the inode's ctime changes, its bytes do not.
+  fs::create_hard_link(inbox_ / "linked.txt", outside_ / "linked.txt");
+  EXPECT_EQ(Collect(3 * kRescan + kSettle), Names{});
+}
+
 TEST_F(InboxWatcherTest, AFileMovedInIsHandedOut) {
   Open();
   Write(outside_ / "permit.txt", "berth permit");
