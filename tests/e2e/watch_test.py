@@ -27,6 +27,7 @@ learn changes the model. Asserted:
 - with --copy --recursive, files already there at the start and files in
   folders made while watching are routed; a restart skips what was
   delivered and routes a file written again;
+- with --link, rescans after the links do not hand the files out again;
 - usage errors exit 2, a missing inbox 1; --format csv starts with the
   log's header; SIGINT stops like SIGTERM.
 Counts: 2,000 files in the first burst, 400 in the second; with --full
@@ -315,6 +316,7 @@ def run(a):
                                                                 n1 + n2))
         expect(all(r["destination"] for r in log), "a log row without destination")
         copy_and_folders(chute, tmp)
+        linked(chute, tmp)
         usage(chute, tmp)
     return checks.exit_status("watch: every document routed once, whole; SIGTERM exits 0")
 
@@ -358,6 +360,27 @@ def copy_and_folders(chute, tmp):
            "copy: after the restart, routed %s" % [d["source"] for d in w.decisions])
     expect(any("skipped 10" in l for l in w.stderr),
            "copy: the restart did not skip the ten delivered: %s" % w.stderr[-1:])
+
+
+def linked(chute, tmp):
+    """--link: each file is linked once; the rescans that follow (the link
+    changed the files' ctime) neither decide nor skip them again."""
+    box = os.path.join(tmp, "lbox")
+    os.makedirs(box)
+    w = Watch(chute, "lbox", "--into", "links", "--link", "--settle", "0.2", "--rescan", "0.3")
+    expect(w.wait_for(lambda: any("watching" in l for l in w.stderr), 30), "link: no start")
+    for i in range(10):
+        with open(os.path.join(box, "k%d.txt" % i), "wb") as f:
+            f.write(document(78, i))
+    expect(w.wait_for(lambda: w.count() >= 10, 30), "link: %d of 10 routed" % w.count())
+    time.sleep(1.5)  # several rescans
+    rc, _ = w.stop()
+    expect(rc == 0 and w.count() == 10, "link: exit %s, %d decisions" % (rc, w.count()))
+    expect(any("delivered 10 " in l and "skipped 0," in l for l in w.stderr),
+           "link: files handed out again: %s" % w.stderr[-1:])
+    for d in w.decisions:
+        expect(os.path.samefile(d["source"], d["destination"]),
+               "link: %s is not a hard link of its source" % d["destination"])
 
 
 def usage(chute, tmp):
