@@ -40,6 +40,7 @@ CommandRun SetupPurge(CLI::App* command);
 CommandRun SetupVersions(CLI::App* command);
 CommandRun SetupRollback(CLI::App* command);
 CommandRun SetupLog(CLI::App* command);
+CommandRun SetupDrift(CLI::App* command);
 CommandRun SetupWatch(CLI::App* command);
 
 }  // namespace chute

@@ -6,6 +6,7 @@
 
 #include "cli/command.h"
 #include "cli/common_options.h"
+#include "cli/correct_from_folders.h"
 #include "cli/exit_code.h"
 #include "cli/format/csv_writer.h"
 #include "cli/format/json_writer.h"
@@ -28,6 +29,10 @@ struct CorrectOptions {
   bool candidate = false;
   OutputFormat format = OutputFormat::kTable;
   int64_t max_bytes = kDefaultMaxBytes;
+  // --from-folders DEST (correct_from_folders.h) instead of a file.
+  std::string from_folders;
+  std::string confirm_after;
+  bool dry_run = false;
 };
 
 // What became of one line of the file.
@@ -295,15 +300,30 @@ int RunCorrect(const CorrectOptions& o) {
 CommandRun SetupCorrect(CLI::App* cmd) {
   auto o = std::make_shared<CorrectOptions>();
   AddDbOption(cmd, &o->db);
-  cmd->add_option("file", o->csv,
-                  "a CSV file with the header document,queue (or path,queue)")
-      ->required();
+  auto* file = cmd->add_option("file", o->csv,
+                               "a CSV file with the header document,queue (or path,queue)");
+  auto* folders = cmd->add_option("--from-folders", o->from_folders,
+                                  "learn what reviewers did in the folders 'route --into DEST' "
+                                  "filled: documents moved into another queue's folder or out "
+                                  "of _review")
+                      ->type_name("DEST");
+  file->excludes(folders);
   AddByOption(cmd, &o->by);
   cmd->add_flag("--create-queues", o->create_queues,
-                "create queues the file names that do not exist yet");
-  cmd->add_flag("--candidate", o->candidate,
-                "put the corrections into a candidate for 'chute promote' instead of the "
-                "current model");
+                "create queues the file (or a folder of DEST) names that do not exist yet");
+  auto* candidate = cmd->add_flag(
+      "--candidate", o->candidate,
+      "put the corrections into a candidate for 'chute promote' instead of the current model");
+  candidate->excludes(folders);
+  cmd->add_option("--confirm-after", o->confirm_after,
+                  "with --from-folders: learn documents left where chute put them as confirmed "
+                  "once decided this long ago (30m, 24h, 7d) or before this RFC 3339 time; "
+                  "documents held for review (audit too) are never confirmed this way")
+      ->type_name("AGE")
+      ->needs(folders);
+  cmd->add_flag("--dry-run", o->dry_run,
+                "with --from-folders: show the summary of what would be learned, learn nothing")
+      ->needs(folders);
   AddFormatOption(cmd, &o->format);
   AddMaxBytesOption(cmd, &o->max_bytes);
   cmd->footer(
@@ -315,12 +335,38 @@ exactly to the new queue; an unknown document whose file exists is learned.
 Bad lines are reported by line number; the rest is applied in one
 transaction.
 
+With --from-folders DEST, the decision log says where each document was
+delivered; a document a reviewer moved into another queue's folder (found by
+its path, by its name, or by its content when renamed) or out of _review
+into a queue's folder is learned under that queue, once per move. The
+summary counts, per queue, the documents corrected, confirmed and skipped.
+
 Examples:
   chute correct fixes.csv
   chute correct fixes.csv --by j.moreau --create-queues
   chute correct fixes.csv --candidate && chute promote
-  chute correct fixes.csv --format jsonl > applied.jsonl)");
-  return [o] { return RunCorrect(*o); };
+  chute correct fixes.csv --format jsonl > applied.jsonl
+  chute correct --from-folders routed/ --by nightly
+  chute correct --from-folders routed/ --confirm-after 24h --dry-run)");
+  return [o]() -> int {
+    if (!o->from_folders.empty()) {
+      CorrectFromFoldersOptions f;
+      f.db = o->db;
+      f.dest = o->from_folders;
+      f.confirm_after = o->confirm_after;
+      f.by = o->by;
+      f.create_queues = o->create_queues;
+      f.dry_run = o->dry_run;
+      f.format = o->format;
+      f.max_bytes = o->max_bytes;
+      return RunCorrectFromFolders(f);
+    }
+    if (o->csv.empty()) {
+      Report("correct", "name a CSV file of corrections, or --from-folders DEST");
+      return kExitUsage;
+    }
+    return RunCorrect(*o);
+  };
 }
 
 }  // namespace chute

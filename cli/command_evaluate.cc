@@ -2,11 +2,7 @@
 // the ledger (no document is read again) or on a labelled holdout; a
 // summary on the terminal and report files (JSON, CSV, HTML).
 #include <CLI/CLI.hpp>
-#include <sys/stat.h>
-
 #include <algorithm>
-#include <cerrno>
-#include <cstring>
 #include <map>
 #include <optional>
 #include <numeric>
@@ -28,6 +24,8 @@
 #include "cli/format/evaluation_text.h"
 #include "cli/format/number.h"
 #include "cli/format/progress.h"
+#include "cli/format/report_files.h"
+#include "cli/evaluate_from_log.h"
 #include "cli/read/document_reader.h"
 #include "cli/read/fold_manifest.h"
 #include "cli/read/labelled_inputs.h"
@@ -55,6 +53,8 @@ struct EvaluateOptions {
   bool with_paths = false;
   bool with_probabilities = false;
   int64_t max_bytes = kDefaultMaxBytes;
+  bool from_log = false;  // production figures (evaluate_from_log.h)
+  std::string since;
 };
 
 // A learned document as the ledger names it.
@@ -395,40 +395,40 @@ int EvaluateHoldout(const EvaluateOptions& o, Store* store, EvaluationReport* r,
 
 // Writes the report files; false after reporting a failure.
 bool WriteReports(const EvaluateOptions& o, const EvaluationReport& r) {
-  if (!o.json.empty()) {
-    if (Status s = WriteFileAtomically(o.json, EvaluationJson(r)); !s.ok()) {
-      Report(kCommand, s.message());
-      return false;
-    }
-  }
-  if (!o.html.empty()) {
-    if (Status s = WriteFileAtomically(o.html, EvaluationHtml(r)); !s.ok()) {
-      Report(kCommand, s.message());
-      return false;
-    }
-  }
-  if (!o.csv.empty()) {
-    if (::mkdir(o.csv.c_str(), 0700) != 0 && errno != EEXIST) {
-      Report(kCommand, o.csv + ": cannot create the folder: " + std::strerror(errno));
-      return false;
-    }
-    struct stat st;
-    if (::stat(o.csv.c_str(), &st) != 0 || !S_ISDIR(st.st_mode)) {
-      Report(kCommand, o.csv + ": not a folder");
-      return false;
-    }
-    const std::string folder = o.csv.back() == '/' ? o.csv : o.csv + "/";
-    for (const auto& [name, content] : EvaluationCsvFiles(r)) {
-      if (Status s = WriteFileAtomically(folder + name, content); !s.ok()) {
-        Report(kCommand, s.message());
-        return false;
-      }
-    }
+  ReportFiles files;
+  files.json_path = o.json;
+  if (!o.json.empty()) files.json = EvaluationJson(r);
+  files.html_path = o.html;
+  if (!o.html.empty()) files.html = EvaluationHtml(r);
+  files.csv_dir = o.csv;
+  if (!o.csv.empty()) files.csv_files = EvaluationCsvFiles(r);
+  if (Status s = WriteReportFiles(files); !s.ok()) {
+    Report(kCommand, s.message());
+    return false;
   }
   return true;
 }
 
 int RunEvaluate(const EvaluateOptions& o) {
+  if (o.from_log) {
+    if (o.target || o.with_paths || o.with_probabilities) {
+      Report(kCommand,
+             "--target-accuracy, --with-paths and --with-probabilities do not apply to "
+             "--from-log");
+      return kExitUsage;
+    }
+    EvaluateFromLogOptions l;
+    l.db = o.db;
+    l.since = o.since;
+    l.json = o.json;
+    l.csv = o.csv;
+    l.html = o.html;
+    return RunEvaluateFromLog(l);
+  }
+  if (!o.since.empty()) {
+    Report(kCommand, "--since needs --from-log");
+    return kExitUsage;
+  }
   std::unique_ptr<Store> store;
   if (!OpenStoreOrReport(kCommand, o.db, &store)) return kExitFailed;
   EvaluationReport r;
@@ -506,6 +506,17 @@ CommandRun SetupEvaluate(CLI::App* cmd) {
   cmd->add_flag("--with-probabilities", o->with_probabilities,
                 "add every queue's posterior to each prediction in the JSON report");
   AddMaxBytesOption(cmd, &o->max_bytes);
+  auto* from_log = cmd->add_flag(
+      "--from-log", o->from_log,
+      "production figures instead: precision per queue from the audit sample of the decision "
+      "log (route --into --audit-share), with counts of what was held and reviewed");
+  cmd->add_option("--since", o->since,
+                  "with --from-log: only decisions since this age (30m, 24h, 30d) or RFC 3339 "
+                  "time")
+      ->type_name("AGE");
+  for (CLI::Option* other : {folds, seed, folds_csv, holdout, holdout_csv}) {
+    from_log->excludes(other);
+  }
   cmd->footer(R"(Cross-validation (the default) uses the documents the store has learned:
 each fold's model is the store's counts minus the fold's documents, so no
 file is read again. A holdout is read, and routed by the store's model.
@@ -515,7 +526,8 @@ Examples:
   chute evaluate --folds 10 --seed 7 --target-accuracy 0.98
   chute evaluate --holdout labelled-2026-12/ --json review.json --csv review/
   chute evaluate --target-accuracy 0.98 --html review.html
-  chute evaluate --folds-csv folds.csv --json cv.json)");
+  chute evaluate --folds-csv folds.csv --json cv.json
+  chute evaluate --from-log --since 30d --html production.html)");
   return [o] { return RunEvaluate(*o); };
 }
 

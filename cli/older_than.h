@@ -1,5 +1,6 @@
-// The cutoff time of `purge --older-than`: an age counted back from now,
-// or a point in time.
+// A point in time given as an age counted back from now or as an RFC 3339
+// time: the cutoff of `purge --older-than`, and the start of `--since`
+// (log, evaluate --from-log, drift) and `correct --confirm-after`.
 #ifndef CHUTE_CLI_OLDER_THAN_H_
 #define CHUTE_CLI_OLDER_THAN_H_
 
@@ -9,8 +10,10 @@
 
 namespace chute {
 
-// Turns arg into a cutoff, RFC 3339 UTC as the ledger records times
-// (YYYY-MM-DDTHH:MM:SSZ): entries learned before it are older than arg.
+// Turns arg into a cutoff, RFC 3339 UTC as the ledger and the decision log
+// record times (YYYY-MM-DDTHH:MM:SSZ): entries learned before it are older
+// than arg; decisions at or after it are --since arg. Text order of such
+// times is time order, so the store compares them as strings.
 //
 //   Nd, Nh, Nm   N days (of 86400 s), hours or minutes before now; N is 0
 //                to 12 decimal digits

@@ -33,6 +33,13 @@ TEST(OlderThanTest, AgesCountBackFromNow) {
   EXPECT_EQ(Cutoff("30m"), "2026-12-02T04:03:13Z");
   EXPECT_EQ(Cutoff("5h"), "2026-12-01T23:33:13Z");
   EXPECT_EQ(Cutoff("1d"), "2026-12-01T04:33:13Z");
+  // The forms --since and --confirm-after are documented with.
+  EXPECT_EQ(Cutoff("24h"), "2026-12-01T04:33:13Z");
+  EXPECT_EQ(Cutoff("7d"), "2026-11-25T04:33:13Z");
+  EXPECT_EQ(Cutoff("30d"), "2026-11-02T04:33:13Z");
+  EXPECT_EQ(Cutoff("90m"), "2026-12-02T03:03:13Z");
+  EXPECT_EQ(Cutoff("48h"), Cutoff("2d"));
+  EXPECT_EQ(Cutoff("1440m"), Cutoff("1d"));
   // 2026-12-02 minus 400 days, across the end of February 2026 (no leap
   // day): 2025-10-28.
   EXPECT_EQ(Cutoff("400d"), "2025-10-28T04:33:13Z");

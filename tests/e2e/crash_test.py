@@ -1,5 +1,6 @@
 #!/usr/bin/python3
-"""Crash safety of learn, correct, forget and rollback, end to end.
+"""Crash safety of learn, correct (from a file and from the folders), forget
+and rollback, end to end.
 
     crash_test.py path/to/chute [--full] [--seed N]
 
@@ -23,8 +24,10 @@
 Exit status 0 when every check holds; the failures are printed otherwise.
 """
 
+import hashlib
 import os
 import signal
+import sqlite3
 import sys
 import tempfile
 import time
@@ -42,6 +45,32 @@ def check_passes(chute, what):
     p = chute.run("check", check=False)
     expect(p.returncode == 0, "%s: chute check exit %d: %s%s" % (
         what, p.returncode, p.stdout, p.stderr))
+
+
+def seed_review_log(tmp, rng):
+    """Documents a reviewer moved: each logged as delivered into one queue's
+    folder of routed/ (the decisions table written with SQL, as route --into
+    writes it) and lying in another queue's folder, for correct
+    --from-folders."""
+    docs = rl.write_corpus(os.path.join(tmp, "l2"), rng, 2, prefix="r")
+    routed = os.path.realpath(os.path.join(tmp, "routed"))
+    con = sqlite3.connect(os.path.join(tmp, "s.db"))
+    with con:
+        for path, queue in docs:
+            chosen = rl.QUEUES[(rl.QUEUES.index(queue) + 1) % len(rl.QUEUES)]
+            name = os.path.basename(path)
+            with open(os.path.join(tmp, path), "rb") as f:
+                data = f.read()
+            os.makedirs(os.path.join(routed, queue), exist_ok=True)
+            with open(os.path.join(routed, queue, name), "wb") as f:
+                f.write(data)
+            con.execute(
+                "INSERT INTO decisions (digest, source, destination, queue, confidence, "
+                "model_version, time, by, mode, delivered, terms) "
+                "VALUES (?, ?, ?, ?, 0.9, 1, '2026-12-01T00:00:00Z', 'seed', 'move', 1, 10)",
+                (hashlib.sha256(data).hexdigest(), os.path.join(tmp, path),
+                 os.path.join(routed, chosen, name), chosen))
+    con.close()
 
 
 def fault_points(binary, seed):
@@ -92,6 +121,8 @@ def fault_points(binary, seed):
                      [(path, rl.QUEUES[(rl.QUEUES.index(q) + 1) % len(rl.QUEUES)])
                       for path, q in first[::3]])
         case("correct.before_commit", "correct", "fixes.csv")
+        seed_review_log(tmp, rng)
+        case("review.before_commit", "correct", "--from-folders", "routed")
         forget = [path for path, _ in later[::4]]
         case("forget.before_commit", "forget", *forget)
 
