@@ -64,15 +64,18 @@ bench: bench-deps
 	tests/bench/run.sh $(BUILD_DIR)
 	tests/bench/reviewer_loop.sh $(BUILD_DIR)
 	tests/bench/route_into.sh $(BUILD_DIR)
+	/usr/bin/python3 tests/bench/watch_vs_route.py $(BUILD_DIR)
 
 # The reliability tests of make test (label "reliability") at their full
 # counts: 50 random kills; 120 corrections and 120 learns under four routers;
 # 100 killed deliveries of 500 documents (route --into --move).
+# chute watch under a burst of 10,000 files.
 soak: deps configure
 	cmake --build $(BUILD_DIR) -j $(JOBS) --target chute
 	/usr/bin/python3 tests/e2e/crash_test.py $(BUILD_DIR)/chute --full
 	/usr/bin/python3 tests/e2e/concurrency_test.py $(BUILD_DIR)/chute --full
 	/usr/bin/python3 tests/e2e/delivery_kill_test.py $(BUILD_DIR)/chute --full
+	/usr/bin/python3 tests/e2e/watch_test.py $(BUILD_DIR)/chute --full
 
 clean:
 	rm -rf $(BUILD_DIR)

@@ -41,6 +41,7 @@ CommandRun SetupVersions(CLI::App* command);
 CommandRun SetupRollback(CLI::App* command);
 CommandRun SetupLog(CLI::App* command);
 CommandRun SetupDrift(CLI::App* command);
+CommandRun SetupWatch(CLI::App* command);
 
 }  // namespace chute
 

@@ -17,6 +17,8 @@ constexpr chute::Command kCommands[] = {
     {"learn", "learn labelled documents (a folder tree, a CSV manifest, or files)",
      chute::SetupLearn},
     {"route", "choose the queue of each document, with its confidence", chute::SetupRoute},
+    {"watch", "route the files of an inbox folder into queue folders as they arrive",
+     chute::SetupWatch},
     {"why", "explain a routing decision: the terms that pulled each way", chute::SetupWhy},
     {"terms", "per queue, the terms that most set it apart from the other queues",
      chute::SetupTerms},

@@ -119,6 +119,18 @@ class Chute:
         return to_db
 
 
+def files_below(root):
+    """{path relative to root: bytes} of every file below root (links not
+    followed)."""
+    found = {}
+    for folder, _, names in os.walk(root):
+        for name in names:
+            p = os.path.join(folder, name)
+            with open(p, "rb") as f:
+                found[os.path.relpath(p, root)] = f.read()
+    return found
+
+
 def rng_for(seed):
     return random.Random(seed)
 
