@@ -14,6 +14,8 @@
 #include <cstring>
 #include <filesystem>
 #include <memory>
+#include <mutex>
+#include <unordered_map>
 #include <string_view>
 #include <system_error>
 #include <vector>
@@ -182,31 +184,101 @@ Status CheckFolderEntry(int root_fd, const std::string& folder_path, const std::
   return Status::Ok();
 }
 
-// Opens root/folder (O_NOFOLLOW | O_DIRECTORY), creating it first when
-// create is set. A symbolic link or a non-folder there is refused.
-Status OpenDeliveryFolder(const std::string& root, const std::string& folder, bool create,
-                          Fd* out) {
+// Opens root/folder (O_NOFOLLOW | O_DIRECTORY) relative to the root's
+// descriptor, creating it first when create is set. A symbolic link or a
+// non-folder there is refused.
+Status OpenDeliveryFolderAt(int root_fd, const std::string& root, const std::string& folder,
+                            bool create, Fd* out) {
   const std::string folder_path = Join(root, folder);
   if (!IsPlainName(folder)) {
     return Status::InvalidArgument(folder_path + ": not a plain folder name");
   }
-  Fd root_fd(::open(root.c_str(), O_RDONLY | O_DIRECTORY | O_CLOEXEC));
-  if (!root_fd.valid()) {
-    return Status::IoError(root + ": cannot open the folder: " + Reason(errno));
-  }
-  if (create && ::mkdirat(root_fd.get(), folder.c_str(), 0750) != 0 && errno != EEXIST) {
+  if (create && ::mkdirat(root_fd, folder.c_str(), 0750) != 0 && errno != EEXIST) {
     return Status::IoError(folder_path + ": cannot create the folder: " + Reason(errno));
   }
-  int fd = ::openat(root_fd.get(), folder.c_str(),
-                    O_RDONLY | O_DIRECTORY | O_NOFOLLOW | O_CLOEXEC);
+  int fd = ::openat(root_fd, folder.c_str(), O_RDONLY | O_DIRECTORY | O_NOFOLLOW | O_CLOEXEC);
   if (fd < 0) {
     const int err = errno;
-    Status why = CheckFolderEntry(root_fd.get(), folder_path, folder);
+    Status why = CheckFolderEntry(root_fd, folder_path, folder);
     if (!why.ok()) return why;
     return Status::IoError(folder_path + ": cannot open the folder: " + Reason(err));
   }
   *out = Fd(fd);
   return Status::Ok();
+}
+
+// OpenDeliveryFolderAt with the root opened by path.
+Status OpenDeliveryFolder(const std::string& root, const std::string& folder, bool create,
+                          Fd* out) {
+  Fd root_fd(::open(root.c_str(), O_RDONLY | O_DIRECTORY | O_CLOEXEC));
+  if (!root_fd.valid()) {
+    return Status::IoError(root + ": cannot open the folder: " + Reason(errno));
+  }
+  return OpenDeliveryFolderAt(root_fd.get(), root, folder, create, out);
+}
+
+// Delivery folders stay open between deliveries, so that a document costs
+// no walk of DEST's path, no mkdir and no open of its folder: before each
+// use the entry under the root is looked at again (one fstatat, not
+// following links) and must still be the same folder (device and inode), so
+// a queue folder replaced meanwhile, by a link or by another folder, is
+// opened afresh (and a link refused) as on first use. Callers get their own
+// descriptor (dup), so entries can be dropped at any time.
+class FolderCache {
+ public:
+  Status Open(const std::string& root, const std::string& folder, Fd* out, size_t* name_max) {
+    std::lock_guard<std::mutex> lock(mu_);
+    const std::string key = Join(root, folder);
+    auto it = entries_.find(key);
+    if (it != entries_.end()) {
+      struct stat st;
+      const Entry& e = it->second;
+      if (::fstatat(e.root.get(), folder.c_str(), &st, AT_SYMLINK_NOFOLLOW) == 0 &&
+          S_ISDIR(st.st_mode) && st.st_dev == e.dev && st.st_ino == e.ino) {
+        return Dup(e, out, name_max, key);
+      }
+      entries_.erase(it);
+    }
+    Entry e;
+    e.root = Fd(::open(root.c_str(), O_RDONLY | O_DIRECTORY | O_CLOEXEC));
+    if (!e.root.valid()) {
+      return Status::IoError(root + ": cannot open the folder: " + Reason(errno));
+    }
+    Status s = OpenDeliveryFolderAt(e.root.get(), root, folder, /*create=*/true, &e.folder);
+    if (!s.ok()) return s;
+    struct stat st;
+    if (::fstat(e.folder.get(), &st) != 0) return Status::IoError(key + ": " + Reason(errno));
+    e.dev = st.st_dev;
+    e.ino = st.st_ino;
+    e.name_max = NameMax(e.folder.get());
+    if (entries_.size() >= kMaxEntries) entries_.clear();
+    return Dup(entries_.emplace(key, std::move(e)).first->second, out, name_max, key);
+  }
+
+ private:
+  struct Entry {
+    Fd root;
+    Fd folder;
+    dev_t dev = 0;
+    ino_t ino = 0;
+    size_t name_max = NAME_MAX;
+  };
+  static constexpr size_t kMaxEntries = 256;
+
+  static Status Dup(const Entry& e, Fd* out, size_t* name_max, const std::string& key) {
+    *out = Fd(::fcntl(e.folder.get(), F_DUPFD_CLOEXEC, 0));
+    if (!out->valid()) return Status::IoError(key + ": " + Reason(errno));
+    *name_max = e.name_max;
+    return Status::Ok();
+  }
+
+  std::mutex mu_;
+  std::unordered_map<std::string, Entry> entries_;
+};
+
+FolderCache& DeliveryFolders() {
+  static FolderCache* cache = new FolderCache;  // never destroyed: used until exit
+  return *cache;
 }
 
 // A fresh temporary name, kTempPrefix followed by 16 random hex digits.
@@ -578,9 +650,10 @@ Status Deliver(const std::string& source, const std::string& wanted, DeliveryMod
   }
   if (!S_ISREG(st.st_mode)) return Status::InvalidArgument(source + " is not a regular file");
 
-  s = OpenDeliveryFolder(root, folder, /*create=*/true, &p.folder);
+  size_t name_max = NAME_MAX;
+  s = DeliveryFolders().Open(root, folder, &p.folder, &name_max);
   if (!s.ok()) return s;
-  NameSequence names(wanted_name, p.source_name, NameMax(p.folder.get()));
+  NameSequence names(wanted_name, p.source_name, name_max);
 
   *out = Delivered();
   std::string name;
@@ -616,7 +689,7 @@ Status Deliver(const std::string& source, const std::string& wanted, DeliveryMod
                              ": " + Reason(err));
     }
     // Start the names again: the ones found taken may have been freed.
-    names = NameSequence(wanted_name, p.source_name, NameMax(p.folder.get()));
+    names = NameSequence(wanted_name, p.source_name, name_max);
   }
 
   const bool move = mode == DeliveryMode::kMove;
