@@ -9,6 +9,7 @@
 #include "classify/model.h"
 #include "cli/command.h"
 #include "cli/common_options.h"
+#include "cli/delivery_options.h"
 #include "cli/deliver/folder_router.h"
 #include "cli/exit_code.h"
 #include "cli/format/csv_writer.h"
@@ -35,13 +36,8 @@ struct RouteOptions {
   size_t threads = 1;
   int64_t at_version = 0;
   // Routing into folders (--into and the options that go with it).
-  std::string into;
-  bool move = false, copy = false, link = false;
-  bool again = false, dry_run = false, set_aside = false;
-  std::optional<double> hold_below;
-  double audit_share = 0;
-  std::optional<uint64_t> audit_seed;
-  std::string by;
+  DeliveryChoices d;
+  bool again = false, dry_run = false;
   // Options given on the command line, to tell a default from a choice.
   std::vector<std::pair<std::string, CLI::Option*>> into_only;
   CLI::Option* top_option = nullptr;
@@ -58,10 +54,9 @@ std::string BelowRoot(const std::string& path, const std::string& root) {
 }
 
 int RunRouteInto(const RouteOptions& o) {
-  const int modes = o.move + o.copy + o.link;
-  if (modes != 1) {
-    Report("route", modes == 0 ? "--into needs one of --move, --copy or --link"
-                               : "--move, --copy and --link exclude each other: choose one");
+  if (std::string why = ModeProblem(o.d); !why.empty()) {
+    const bool none = !o.d.move && !o.d.copy && !o.d.link;
+    Report("route", (none ? "--into " : "") + why);
     return kExitUsage;
   }
   if (o.top_option->count() > 0 || o.at_version_option->count() > 0) {
@@ -81,42 +76,18 @@ int RunRouteInto(const RouteOptions& o) {
     }
   }
   // DEST inside an input folder would have its documents routed again.
-  {
-    auto canonical = [](const std::string& p, std::string* out) {
-      std::error_code ec;
-      std::string c = std::filesystem::weakly_canonical(p, ec).lexically_normal().string();
-      while (c.size() > 1 && c.back() == '/') c.pop_back();
-      *out = c;
-      return !ec;
-    };
-    std::string dest, folder;
-    for (const std::string& in : o.inputs) {
-      std::error_code ec;
-      if (!std::filesystem::is_directory(in, ec) || !canonical(o.into, &dest) ||
-          !canonical(in, &folder)) {
-        continue;
-      }
-      if (dest == folder || dest.rfind(folder == "/" ? "/" : folder + "/", 0) == 0) {
-        Report("route", "--into " + o.into + " lies inside the input folder " + in +
-                            ": its documents would be routed again; choose a DEST outside it");
-        return kExitUsage;
-      }
+  for (const std::string& in : o.inputs) {
+    std::error_code ec;
+    if (std::filesystem::is_directory(in, ec) && LiesInside(o.d.into, in)) {
+      Report("route", "--into " + o.d.into + " lies inside the input folder " + in +
+                          ": its documents would be routed again; choose a DEST outside it");
+      return kExitUsage;
     }
   }
   FolderRouteOptions fo;
-  fo.into = o.into;
-  fo.mode = o.move ? DeliveryMode::kMove : o.copy ? DeliveryMode::kCopy : DeliveryMode::kLink;
+  ToFolderRouteOptions(o.d, &fo);  // a seed from the clock unless one is given
   fo.again = o.again;
   fo.dry_run = o.dry_run;
-  fo.set_aside = o.set_aside;
-  fo.hold_below = o.hold_below;
-  fo.audit_share = o.audit_share;
-  // A seed from the clock unless one is given; printed so that the same
-  // draw can be made again.
-  fo.audit_seed = o.audit_seed ? *o.audit_seed
-                               : static_cast<uint64_t>(
-                                     std::chrono::system_clock::now().time_since_epoch().count());
-  fo.by = o.by;
   fo.threads = o.threads;
   fo.max_bytes = o.max_bytes;
 
@@ -131,7 +102,7 @@ int RunRouteInto(const RouteOptions& o) {
                      {"runner-up"},
                      {"its posterior", TableWriter::Align::kRight},
                      {"held"},
-                     {(o.dry_run ? "would go to (below " : "now at (below ") + o.into + ")"}});
+                     {(o.dry_run ? "would go to (below " : "now at (below ") + o.d.into + ")"}});
   if (o.format == OutputFormat::kCsv) Print(DecisionCsvHeader());
   auto report = [&](const RoutedDocument& d) {
     using Outcome = RoutedDocument::Outcome;
@@ -190,7 +161,7 @@ int RunRouteInto(const RouteOptions& o) {
     return kExitFailed;
   }
   if (o.format == OutputFormat::kTable) Print(table.Render());
-  const bool seeded_by_clock = !o.audit_seed && o.audit_share > 0;
+  const bool seeded_by_clock = !o.d.audit_seed && o.d.audit_share > 0;
   if (o.format == OutputFormat::kTable) {
     std::string line = std::string(o.dry_run ? "dry run, nothing moved or logged: would deliver "
                                              : "delivered ") +
@@ -203,7 +174,7 @@ int RunRouteInto(const RouteOptions& o) {
       line += "; " + std::to_string(tally.finished_pending) +
               " deliveries of an interrupted run finished";
     }
-    if (o.audit_share > 0) line += "; audit seed " + std::to_string(fo.audit_seed);
+    if (o.d.audit_share > 0) line += "; audit seed " + std::to_string(fo.audit_seed);
     line += "; model version " + std::to_string(router->model_version());
     Report("route", line);
   } else if (seeded_by_clock) {
@@ -239,7 +210,7 @@ std::string JsonLine(const std::string& file, const Model& model, const VersionI
 }
 
 int RunRoute(const RouteOptions& o) {
-  if (!o.into.empty()) return RunRouteInto(o);
+  if (!o.d.into.empty()) return RunRouteInto(o);
   for (const auto& [name, option] : o.into_only) {
     if (option->count() > 0) {
       Report("route", name + " goes with --into DEST");
@@ -368,17 +339,17 @@ CommandRun SetupRoute(CLI::App* cmd) {
                       "versions')")
           ->check(CLI::PositiveNumber)
           ->type_name("V");
-  cmd->add_option("--into", o->into,
+  cmd->add_option("--into", o->d.into,
                   "DEST: deliver each document into DEST/<queue>/ (unsure ones into "
                   "DEST/_review/) and log the decision")
       ->type_name("DEST");
   auto into_only = [&](const std::string& name, CLI::Option* opt) {
     o->into_only.emplace_back(name, opt);
   };
-  into_only("--move", cmd->add_flag("--move", o->move, "with --into: move the documents"));
-  into_only("--copy", cmd->add_flag("--copy", o->copy,
+  into_only("--move", cmd->add_flag("--move", o->d.move, "with --into: move the documents"));
+  into_only("--copy", cmd->add_flag("--copy", o->d.copy,
                                     "with --into: copy them (documents copied before are skipped)"));
-  into_only("--link", cmd->add_flag("--link", o->link,
+  into_only("--link", cmd->add_flag("--link", o->d.link,
                                     "with --into: hard-link them (same filesystem only; linked "
                                     "before are skipped)"));
   into_only("--again", cmd->add_flag("--again", o->again,
@@ -386,29 +357,29 @@ CommandRun SetupRoute(CLI::App* cmd) {
   into_only("--dry-run", cmd->add_flag("--dry-run", o->dry_run,
                                        "with --into: show the decisions; move and log nothing"));
   into_only("--hold-below",
-            cmd->add_option("--hold-below", o->hold_below,
+            cmd->add_option("--hold-below", o->d.hold_below,
                             "P: send documents whose confidence is below P to the review "
                             "folder (overrides every queue's own threshold)")
                 ->check(CLI::Range(0.0, 1.0))
                 ->type_name("P"));
   into_only("--audit-share",
-            cmd->add_option("--audit-share", o->audit_share,
+            cmd->add_option("--audit-share", o->d.audit_share,
                             "S: also send this share (0 to 1) of the documents routed "
                             "automatically to review, marked audit")
                 ->check(CLI::Range(0.0, 1.0))
                 ->type_name("S"));
   into_only("--audit-seed",
-            cmd->add_option("--audit-seed", o->audit_seed,
+            cmd->add_option("--audit-seed", o->d.audit_seed,
                             "N: the seed of the audit draw (default: from the clock, printed)")
                 ->type_name("N"));
-  into_only("--set-aside", cmd->add_flag("--set-aside", o->set_aside,
+  into_only("--set-aside", cmd->add_flag("--set-aside", o->d.set_aside,
                                          "with --into: move unreadable documents to "
                                          "DEST/_unreadable/"));
-  into_only("--by", cmd->add_option("--by", o->by,
+  into_only("--by", cmd->add_option("--by", o->d.by,
                                     "NAME: who routes, recorded in the log (default: your login "
                                     "name)")
                         ->type_name("NAME"));
-  o->by = LoginName();
+  o->d.by = LoginName();
   cmd->footer(R"(Confidence is the posterior probability of the chosen queue. Naive Bayes
 is often over-confident: have a person review documents below a threshold
 you have measured (see README, "Cautions").

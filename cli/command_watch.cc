@@ -11,6 +11,7 @@
 
 #include "cli/command.h"
 #include "cli/common_options.h"
+#include "cli/delivery_options.h"
 #include "cli/deliver/folder_router.h"
 #include "cli/deliver/inbox_watcher.h"
 #include "cli/deliver/stop_request.h"
@@ -33,13 +34,8 @@ constexpr size_t kWatchGroup = kParallelWindow;
 struct WatchOptions {
   std::string db;
   std::string inbox;
-  std::string into;
-  bool move = false, copy = false, link = false;
-  bool set_aside = false, recursive = false;
-  std::optional<double> hold_below;
-  double audit_share = 0;
-  std::optional<uint64_t> audit_seed;
-  std::string by;
+  DeliveryChoices d;
+  bool recursive = false;
   OutputFormat format = OutputFormat::kJsonl;
   size_t threads = 1;
   int64_t max_bytes = kDefaultMaxBytes;
@@ -47,27 +43,13 @@ struct WatchOptions {
   double settle_seconds = 2;   // unchanged this long on a scan: complete
 };
 
-// Whether `inner` is `outer` or lies below it, both resolved.
-bool Inside(const std::string& inner, const std::string& outer) {
-  auto canonical = [](const std::string& p) {
-    std::error_code ec;
-    std::string c = std::filesystem::weakly_canonical(p, ec).lexically_normal().string();
-    while (c.size() > 1 && c.back() == '/') c.pop_back();
-    return c;
-  };
-  const std::string in = canonical(inner), out = canonical(outer);
-  return in == out || in.rfind(out == "/" ? "/" : out + "/", 0) == 0;
-}
-
 std::chrono::milliseconds Millis(double seconds) {
   return std::chrono::milliseconds(static_cast<int64_t>(seconds * 1000 + 0.5));
 }
 
 int RunWatch(const WatchOptions& o) {
-  const int modes = o.move + o.copy + o.link;
-  if (modes != 1) {
-    Report("watch", modes == 0 ? "needs one of --move, --copy or --link"
-                               : "--move, --copy and --link exclude each other: choose one");
+  if (std::string why = ModeProblem(o.d); !why.empty()) {
+    Report("watch", why);
     return kExitUsage;
   }
   std::error_code ec;
@@ -78,8 +60,8 @@ int RunWatch(const WatchOptions& o) {
                         (std::filesystem::exists(o.inbox, ec) ? "not a folder" : "no such folder"));
     return kExitFailed;
   }
-  if (Inside(o.into, o.inbox)) {
-    Report("watch", "--into " + o.into + " lies inside the inbox " + o.inbox +
+  if (LiesInside(o.d.into, o.inbox)) {
+    Report("watch", "--into " + o.d.into + " lies inside the inbox " + o.inbox +
                         ": its documents would be routed again; choose a DEST outside it");
     return kExitUsage;
   }
@@ -93,15 +75,7 @@ int RunWatch(const WatchOptions& o) {
   }
 
   FolderRouteOptions fo;
-  fo.into = o.into;
-  fo.mode = o.move ? DeliveryMode::kMove : o.copy ? DeliveryMode::kCopy : DeliveryMode::kLink;
-  fo.set_aside = o.set_aside;
-  fo.hold_below = o.hold_below;
-  fo.audit_share = o.audit_share;
-  fo.audit_seed = o.audit_seed ? *o.audit_seed
-                               : static_cast<uint64_t>(
-                                     std::chrono::system_clock::now().time_since_epoch().count());
-  fo.by = o.by;
+  ToFolderRouteOptions(o.d, &fo);
   fo.threads = o.threads;
   fo.max_bytes = o.max_bytes;
 
@@ -159,7 +133,7 @@ int RunWatch(const WatchOptions& o) {
   std::string start = "watching " + o.inbox + (o.recursive ? " and the folders below it" : "") +
                       ", delivering into " + router->root() + " with model version " +
                       std::to_string(router->model_version());
-  if (o.audit_share > 0) start += "; audit seed " + std::to_string(fo.audit_seed);
+  if (o.d.audit_share > 0) start += "; audit seed " + std::to_string(fo.audit_seed);
   if (tally.finished_pending > 0) {
     start += "; " + std::to_string(tally.finished_pending) +
              " deliveries of an interrupted run finished";
@@ -217,32 +191,32 @@ CommandRun SetupWatch(CLI::App* cmd) {
   auto o = std::make_shared<WatchOptions>();
   AddDbOption(cmd, &o->db);
   cmd->add_option("inbox", o->inbox, "the folder to watch")->required();
-  cmd->add_option("--into", o->into,
+  cmd->add_option("--into", o->d.into,
                   "DEST: deliver each document into DEST/<queue>/ (unsure ones into "
                   "DEST/_review/) and log the decision")
       ->type_name("DEST")
       ->required();
-  cmd->add_flag("--move", o->move, "move the documents");
-  cmd->add_flag("--copy", o->copy, "copy them (documents copied before are skipped)");
-  cmd->add_flag("--link", o->link,
+  cmd->add_flag("--move", o->d.move, "move the documents");
+  cmd->add_flag("--copy", o->d.copy, "copy them (documents copied before are skipped)");
+  cmd->add_flag("--link", o->d.link,
                 "hard-link them (same filesystem only; linked before are skipped)");
-  cmd->add_option("--hold-below", o->hold_below,
+  cmd->add_option("--hold-below", o->d.hold_below,
                   "P: send documents whose confidence is below P to the review folder "
                   "(overrides every queue's own threshold)")
       ->check(CLI::Range(0.0, 1.0))
       ->type_name("P");
-  cmd->add_option("--audit-share", o->audit_share,
+  cmd->add_option("--audit-share", o->d.audit_share,
                   "S: also send this share (0 to 1) of the documents routed automatically to "
                   "review, marked audit")
       ->check(CLI::Range(0.0, 1.0))
       ->type_name("S");
-  cmd->add_option("--audit-seed", o->audit_seed,
+  cmd->add_option("--audit-seed", o->d.audit_seed,
                   "N: the seed of the audit draw (default: from the clock, printed)")
       ->type_name("N");
-  cmd->add_flag("--set-aside", o->set_aside, "move unreadable documents to DEST/_unreadable/");
+  cmd->add_flag("--set-aside", o->d.set_aside, "move unreadable documents to DEST/_unreadable/");
   cmd->add_flag("--recursive", o->recursive, "watch the folders below the inbox too");
-  cmd->add_option("--by", o->by, "NAME: who routes, recorded in the log (default: your login name)");
-  o->by = LoginName();
+  cmd->add_option("--by", o->d.by, "NAME: who routes, recorded in the log (default: your login name)");
+  o->d.by = LoginName();
   AddChoiceOption<OutputFormat>(cmd, "--format", &o->format,
                                 {{"jsonl", OutputFormat::kJsonl}, {"csv", OutputFormat::kCsv}},
                                 "one line per decision: jsonl (default) or csv");
