@@ -343,43 +343,13 @@ CommandRun SetupRoute(CLI::App* cmd) {
                   "DEST: deliver each document into DEST/<queue>/ (unsure ones into "
                   "DEST/_review/) and log the decision")
       ->type_name("DEST");
-  auto into_only = [&](const std::string& name, CLI::Option* opt) {
-    o->into_only.emplace_back(name, opt);
-  };
-  into_only("--move", cmd->add_flag("--move", o->d.move, "with --into: move the documents"));
-  into_only("--copy", cmd->add_flag("--copy", o->d.copy,
-                                    "with --into: copy them (documents copied before are skipped)"));
-  into_only("--link", cmd->add_flag("--link", o->d.link,
-                                    "with --into: hard-link them (same filesystem only; linked "
-                                    "before are skipped)"));
-  into_only("--again", cmd->add_flag("--again", o->again,
-                                     "with --copy/--link: deliver documents delivered before too"));
-  into_only("--dry-run", cmd->add_flag("--dry-run", o->dry_run,
-                                       "with --into: show the decisions; move and log nothing"));
-  into_only("--hold-below",
-            cmd->add_option("--hold-below", o->d.hold_below,
-                            "P: send documents whose confidence is below P to the review "
-                            "folder (overrides every queue's own threshold)")
-                ->check(CLI::Range(0.0, 1.0))
-                ->type_name("P"));
-  into_only("--audit-share",
-            cmd->add_option("--audit-share", o->d.audit_share,
-                            "S: also send this share (0 to 1) of the documents routed "
-                            "automatically to review, marked audit")
-                ->check(CLI::Range(0.0, 1.0))
-                ->type_name("S"));
-  into_only("--audit-seed",
-            cmd->add_option("--audit-seed", o->d.audit_seed,
-                            "N: the seed of the audit draw (default: from the clock, printed)")
-                ->type_name("N"));
-  into_only("--set-aside", cmd->add_flag("--set-aside", o->d.set_aside,
-                                         "with --into: move unreadable documents to "
-                                         "DEST/_unreadable/"));
-  into_only("--by", cmd->add_option("--by", o->d.by,
-                                    "NAME: who routes, recorded in the log (default: your login "
-                                    "name)")
-                        ->type_name("NAME"));
-  o->d.by = LoginName();
+  o->into_only = AddDeliveryOptions(cmd, &o->d, "with --into: ");
+  o->into_only.emplace_back("--again", cmd->add_flag("--again", o->again,
+                                                     "with --copy/--link: deliver documents "
+                                                     "delivered before too"));
+  o->into_only.emplace_back("--dry-run",
+                            cmd->add_flag("--dry-run", o->dry_run,
+                                          "with --into: show the decisions; move and log nothing"));
   cmd->footer(R"(Confidence is the posterior probability of the chosen queue. Naive Bayes
 is often over-confident: have a person review documents below a threshold
 you have measured (see README, "Cautions").

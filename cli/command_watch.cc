@@ -196,27 +196,8 @@ CommandRun SetupWatch(CLI::App* cmd) {
                   "DEST/_review/) and log the decision")
       ->type_name("DEST")
       ->required();
-  cmd->add_flag("--move", o->d.move, "move the documents");
-  cmd->add_flag("--copy", o->d.copy, "copy them (documents copied before are skipped)");
-  cmd->add_flag("--link", o->d.link,
-                "hard-link them (same filesystem only; linked before are skipped)");
-  cmd->add_option("--hold-below", o->d.hold_below,
-                  "P: send documents whose confidence is below P to the review folder "
-                  "(overrides every queue's own threshold)")
-      ->check(CLI::Range(0.0, 1.0))
-      ->type_name("P");
-  cmd->add_option("--audit-share", o->d.audit_share,
-                  "S: also send this share (0 to 1) of the documents routed automatically to "
-                  "review, marked audit")
-      ->check(CLI::Range(0.0, 1.0))
-      ->type_name("S");
-  cmd->add_option("--audit-seed", o->d.audit_seed,
-                  "N: the seed of the audit draw (default: from the clock, printed)")
-      ->type_name("N");
-  cmd->add_flag("--set-aside", o->d.set_aside, "move unreadable documents to DEST/_unreadable/");
+  AddDeliveryOptions(cmd, &o->d, "");
   cmd->add_flag("--recursive", o->recursive, "watch the folders below the inbox too");
-  cmd->add_option("--by", o->d.by, "NAME: who routes, recorded in the log (default: your login name)");
-  o->d.by = LoginName();
   AddChoiceOption<OutputFormat>(cmd, "--format", &o->format,
                                 {{"jsonl", OutputFormat::kJsonl}, {"csv", OutputFormat::kCsv}},
                                 "one line per decision: jsonl (default) or csv");

@@ -4,9 +4,13 @@
 #ifndef CHUTE_CLI_DELIVERY_OPTIONS_H_
 #define CHUTE_CLI_DELIVERY_OPTIONS_H_
 
+#include <CLI/CLI.hpp>
+
 #include <cstdint>
 #include <optional>
 #include <string>
+#include <utility>
+#include <vector>
 
 #include "cli/deliver/folder_router.h"
 
@@ -21,6 +25,13 @@ struct DeliveryChoices {
   std::optional<uint64_t> audit_seed;
   std::string by;
 };
+
+// Adds --move, --copy, --link, --hold-below, --audit-share, --audit-seed,
+// --set-aside and --by (default: the login name) to cmd, each help text
+// beginning with help_prefix; returns them by name, so that a command can
+// tell whether any was given.
+std::vector<std::pair<std::string, CLI::Option*>> AddDeliveryOptions(
+    CLI::App* cmd, DeliveryChoices* c, const std::string& help_prefix);
 
 // Empty when exactly one of --move, --copy and --link was given; else the
 // usage error to report.
