@@ -50,6 +50,8 @@ class Statement {
   }
   std::string_view ColumnText(int i) const;
   std::string_view ColumnBlob(int i) const;
+  // The statement itself, for SQLite calls this class does not wrap.
+  sqlite3_stmt* handle() const { return stmt_.get(); }
 
  private:
   struct Finalizer {

@@ -5,6 +5,7 @@
 #include <cerrno>
 #include <cstring>
 
+#include "store/count_rows.h"
 #include "store/schema.h"
 #include "store/store.h"
 
@@ -28,7 +29,7 @@ Status ConfigureStoreConnection(sqlite3* db) {
     Status s = sql::Exec(db, pragma);
     if (!s.ok()) return s;
   }
-  return Status::Ok();
+  return RegisterCountRows(db);
 }
 
 Status OpenStoreFile(const std::string& path, sql::DbHandle* db,

@@ -53,29 +53,42 @@ std::string EncodeTermCounts(const std::vector<std::pair<std::string_view, int64
   return Encode(terms);
 }
 
+bool TermCountsReader::Next(std::string_view* term, int64_t* n) {
+  if (!ok_ || rest_.empty()) return false;
+  ok_ = false;  // until the entry has proved whole
+  uint64_t shared, suffix, count;
+  if (!GetVarint(&rest_, &shared) || !GetVarint(&rest_, &suffix)) return false;
+  if (suffix > rest_.size()) return false;
+  if (first_ ? shared != 0 : shared > term_.size()) return false;
+  // Terms are sorted by bytes and distinct (std::string compares bytes as
+  // unsigned char, as the encoder's callers sort them): the new term is
+  // greater than the previous one, which shares its first `shared` bytes.
+  const std::string_view added = rest_.substr(0, suffix);
+  if (!first_) {
+    const std::string_view old_rest = std::string_view(term_).substr(shared);
+    if (added <= old_rest) return false;
+  }
+  term_.resize(shared);
+  term_.append(added);
+  rest_.remove_prefix(suffix);
+  if (!GetVarint(&rest_, &count) || count == 0 ||
+      count > static_cast<uint64_t>(std::numeric_limits<int64_t>::max())) {
+    return false;
+  }
+  first_ = false;
+  ok_ = true;
+  *term = term_;
+  *n = static_cast<int64_t>(count);
+  return true;
+}
+
 bool DecodeTermCounts(std::string_view blob, std::vector<TermCount>* terms) {
   terms->clear();
-  while (!blob.empty()) {
-    uint64_t shared, suffix, count;
-    if (!GetVarint(&blob, &shared) || !GetVarint(&blob, &suffix)) return false;
-    if (suffix > blob.size()) return false;
-    if (terms->empty() ? shared != 0 : shared > terms->back().first.size()) {
-      return false;
-    }
-    std::string term = terms->empty() ? std::string()
-                                      : terms->back().first.substr(0, shared);
-    term.append(blob.substr(0, suffix));
-    blob.remove_prefix(suffix);
-    // Terms are sorted by bytes and distinct (std::string compares bytes as
-    // unsigned char, as the encoder's callers sort them).
-    if (!terms->empty() && term <= terms->back().first) return false;
-    if (!GetVarint(&blob, &count) || count == 0 ||
-        count > static_cast<uint64_t>(std::numeric_limits<int64_t>::max())) {
-      return false;
-    }
-    terms->emplace_back(std::move(term), static_cast<int64_t>(count));
-  }
-  return true;
+  TermCountsReader reader(blob);
+  std::string_view term;
+  int64_t n = 0;
+  while (reader.Next(&term, &n)) terms->emplace_back(std::string(term), n);
+  return reader.ok();
 }
 
 }  // namespace chute

@@ -30,6 +30,27 @@ std::string EncodeTermCounts(const std::vector<std::pair<std::string_view, int64
 // bytes and distinct.
 bool DecodeTermCounts(std::string_view blob, std::vector<TermCount>* terms);
 
+// Reads a blob's entries one at a time without a string per term (for
+// callers that sum many documents). The blob must outlive the reader; a
+// term's view lasts until the next call of Next.
+//   TermCountsReader reader(blob);
+//   std::string_view term; int64_t n;
+//   while (reader.Next(&term, &n)) ...;
+//   if (!reader.ok()) ...malformed (as DecodeTermCounts says)...
+class TermCountsReader {
+ public:
+  explicit TermCountsReader(std::string_view blob) : rest_(blob) {}
+  // False at the end of the blob, or when it is malformed (then ok() is false).
+  bool Next(std::string_view* term, int64_t* n);
+  bool ok() const { return ok_; }
+
+ private:
+  std::string_view rest_;
+  std::string term_;
+  bool first_ = true;
+  bool ok_ = true;
+};
+
 }  // namespace chute
 
 #endif  // CHUTE_STORE_TERM_COUNTS_CODEC_H_
