@@ -89,7 +89,7 @@ void PrintSummary(const std::vector<Line>& lines, const std::string& by,
     }
   }
   std::vector<QueueInfo> queues;
-  store->ListQueues(&queues);
+  store->ListQueues(&queues, Store::TermTally::kWithout);
   TableWriter table({{"queue"},
                      {"corrected into", TableWriter::Align::kRight},
                      {"corrected out of", TableWriter::Align::kRight},
@@ -142,7 +142,7 @@ int RunCorrect(const CorrectOptions& o) {
   std::set<std::string> queues;
   {
     std::vector<QueueInfo> list;
-    if (Status s = store->ListQueues(&list); !s.ok()) {
+    if (Status s = store->ListQueues(&list, Store::TermTally::kWithout); !s.ok()) {
       Report("correct", s.message());
       return kExitFailed;
     }

@@ -70,7 +70,7 @@ void PrintSummary(const std::vector<Line>& lines, const ForgetResult& result,
     refused += l.outcome == "refused";
   }
   std::vector<QueueInfo> queues;
-  store->ListQueues(&queues);
+  store->ListQueues(&queues, Store::TermTally::kWithout);
   TableWriter table({{"queue"},
                      {"forgotten", TableWriter::Align::kRight},
                      {"documents left", TableWriter::Align::kRight}});

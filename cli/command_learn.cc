@@ -70,7 +70,7 @@ void PrintSummary(const std::vector<Line>& lines, const LearnResult& result, Sto
     if (l.outcome == "corrected") ++per_queue[l.queue].corrected;
   }
   std::vector<QueueInfo> queues;
-  store->ListQueues(&queues);
+  store->ListQueues(&queues, Store::TermTally::kWithout);
   TableWriter table({{"queue"},
                      {"learned now", TableWriter::Align::kRight},
                      {"corrected into", TableWriter::Align::kRight},

@@ -37,7 +37,7 @@ Status LoadTable(Store* store, TermMethod method, TermTable* table) {
     return s;
   }
   std::vector<QueueInfo> queues;
-  Status s = store->ListQueues(&queues);
+  Status s = store->ListQueues(&queues, Store::TermTally::kWithout);
   if (!s.ok()) return s;
   TermTableBuilder builder;
   for (const QueueInfo& q : queues) builder.AddQueue(q.name);

@@ -160,7 +160,7 @@ Status Store::LoadSettings() {
   return Status::Ok();
 }
 
-Status Store::ListQueues(std::vector<QueueInfo>* out) {
+Status Store::ListQueues(std::vector<QueueInfo>* out, TermTally tally) {
   out->clear();
   // Queues and counts from one snapshot.
   sql::ReadTransaction read(db_.get());
@@ -168,7 +168,7 @@ Status Store::ListQueues(std::vector<QueueInfo>* out) {
   // The rows of every queue in one pass over counts (its key begins with
   // the term, so a query per queue would read all of counts each time).
   std::unordered_map<int64_t, int64_t> rows;
-  {
+  if (tally == TermTally::kWith) {
     sql::Statement st(db_.get(), "SELECT queue_id FROM counts");
     if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
     int rc;

@@ -10,6 +10,7 @@
 #ifndef CHUTE_STORE_STORE_H_
 #define CHUTE_STORE_STORE_H_
 
+#include <array>
 #include <cstdint>
 #include <functional>
 #include <memory>
@@ -284,8 +285,10 @@ class Store {
   const std::string& path() const { return path_; }
   const StoreSettings& settings() const { return settings_; }
 
-  // Queues ordered by name.
-  Status ListQueues(std::vector<QueueInfo>* out);
+  // Queues ordered by name. Without distinct_terms, QueueInfo's
+  // distinct_terms stays 0 and counts is not read (a pass over every count).
+  enum class TermTally { kWith, kWithout };
+  Status ListQueues(std::vector<QueueInfo>* out, TermTally tally = TermTally::kWith);
   // |V|: the number of terms with a non-zero count.
   Status VocabularySize(int64_t* out);
   // The counts a Model is built from, queues ordered by name, terms in byte
@@ -641,6 +644,9 @@ class Store {
 
   std::string path_;
   sql::DbHandle db_;
+  // ResolveDocument's statements (by digest, by source, by prefix),
+  // prepared on first use.
+  std::array<sql::Statement, 3> resolve_statements_;
   StoreSettings settings_;
   // Prepared once: learn asks for every document it reads.
   sql::Statement find_document_;

@@ -6,13 +6,17 @@
 #include <cstdint>
 #include <functional>
 #include <string>
+#include <string_view>
+#include <thread>
 #include <unordered_map>
 #include <utility>
 #include <vector>
 
+#include "store/count_rows.h"
 #include "store/fault_point.h"
 #include "store/store.h"
 #include "store/term_counts_codec.h"
+#include "store/term_numbering.h"
 
 namespace chute {
 
@@ -23,12 +27,13 @@ constexpr char kLedgerColumns[] =
     "l.tokens, l.term_counts, l.in_model "
     "FROM ledger l JOIN queues q ON q.id = l.queue_id ";
 
-// A ledger row with its own term counts decoded.
+// A ledger row with its own term counts, encoded (term_counts_codec.h):
+// CountDelta reads them without a string per term.
 struct StoredDocument {
   int64_t ledger_id = 0;
   int64_t queue_id = 0;
   LedgerEntry entry;
-  std::vector<TermCount> terms;
+  std::string term_counts;
 };
 
 // Every queue's name by id (retired ones too).
@@ -60,16 +65,15 @@ class LedgerReader {
   // *found is false when the digest is not learned.
   Status ByDigest(const std::string& digest, StoredDocument* out, bool* found) {
     by_digest_.Bind(1, digest);
-    return Read(&by_digest_, digest, out, found);
+    return Read(&by_digest_, out, found);
   }
   Status ById(int64_t id, StoredDocument* out, bool* found) {
     by_id_.Bind(1, id);
-    return Read(&by_id_, "ledger id " + std::to_string(id), out, found);
+    return Read(&by_id_, out, found);
   }
 
  private:
-  Status Read(sql::Statement* st, const std::string& what, StoredDocument* out,
-              bool* found) {
+  Status Read(sql::Statement* st, StoredDocument* out, bool* found) {
     *found = false;
     int rc = st->Step();
     Status s = Status::Ok();
@@ -80,12 +84,8 @@ class LedgerReader {
           std::string(st->ColumnText(1)), std::string(st->ColumnText(3)),
           std::string(st->ColumnText(4)), std::string(st->ColumnText(5)),
           st->ColumnInt(6), st->ColumnInt(8) != 0};
-      if (DecodeTermCounts(st->ColumnBlob(7), &out->terms)) {
-        *found = true;
-      } else {
-        s = Status::Corruption(path_ + ": the ledger entry of " + what +
-                               " does not decode");
-      }
+      out->term_counts.assign(st->ColumnBlob(7));
+      *found = true;
     } else if (rc != SQLITE_DONE) {
       s = sql::ErrorStatus(db_, path_);
     }
@@ -109,23 +109,30 @@ class CountDelta {
   // N(q, w) += sign * n for every term of doc, N(q) += sign * tokens,
   // documents(q) += sign. sign is +1 or -1.
   void Add(int64_t queue_id, const StoredDocument& doc, int sign) {
-    size_t q = 0;
-    while (q < queue_ids_.size() && queue_ids_[q] != queue_id) ++q;
-    if (q == queue_ids_.size()) {
-      queue_ids_.push_back(queue_id);
-      sums_.emplace_back();
-      totals_.emplace_back();
-    }
+    const size_t q = Column(queue_id, sign, doc.entry.tokens);
+    if (!Number(doc)) return;
     std::vector<int64_t>& column = sums_[q];
-    for (const auto& [term, n] : doc.terms) {
-      auto [it, inserted] =
-          term_index_.emplace(term, static_cast<uint32_t>(terms_.size()));
-      if (inserted) terms_.push_back(&it->first);
-      if (it->second >= column.size()) column.resize(terms_.size(), 0);
-      column[it->second] += sign * n;
+    if (column.size() < terms_.size()) column.resize(terms_.size(), 0);
+    for (const Entry& e : entries_) column[e.number] += sign * e.n;
+  }
+
+  // Add(from, doc, -1) and Add(to, doc, +1), each term looked up once.
+  void Move(int64_t from_queue, int64_t to_queue, const StoredDocument& doc) {
+    const size_t from = Column(from_queue, -1, doc.entry.tokens);
+    const size_t to = Column(to_queue, +1, doc.entry.tokens);
+    if (!Number(doc)) return;
+    std::vector<int64_t>& out = sums_[from];
+    std::vector<int64_t>& in = sums_[to];
+    if (out.size() < terms_.size()) out.resize(terms_.size(), 0);
+    if (in.size() < terms_.size()) in.resize(terms_.size(), 0);
+    for (const Entry& e : entries_) {
+      __builtin_prefetch(&out[e.number]);
+      __builtin_prefetch(&in[e.number]);
     }
-    totals_[q].documents += sign;
-    totals_[q].tokens += sign * doc.entry.tokens;
+    for (const Entry& e : entries_) {
+      out[e.number] -= e.n;
+      in[e.number] += e.n;
+    }
   }
 
   // Writes the sums. Terms a sum adds to are created when missing. With
@@ -136,14 +143,23 @@ class CountDelta {
   // damaged store).
   Status Apply(sqlite3* db, const std::string& path, bool drop_terms,
                int64_t* dropped, CountsSum* running) {
+    if (malformed_ >= 0) {
+      return Status::Corruption(path + ": the term counts of ledger entry " +
+                                std::to_string(malformed_) + " do not decode");
+    }
     sql::Statement find_term(db, "SELECT id FROM terms WHERE text = ?");
     sql::Statement add_term(db, "INSERT INTO terms(text) VALUES(?)");
-    // The current count is read first and the new one written as it is:
-    // a statement with RETURNING n would cost SQLite a temporary table per
-    // row (measured: ten times the file writes of the whole correction).
-    sql::Statement get(db, "SELECT n FROM counts WHERE term_id = ? AND queue_id = ?");
-    sql::Statement insert(db, "INSERT INTO counts(term_id, queue_id, n) VALUES(?, ?, ?)");
-    sql::Statement update(db, "UPDATE counts SET n = ? WHERE term_id = ? AND queue_id = ?");
+    // The current counts are read first and the new ones written as they
+    // are: a statement with RETURNING n would cost SQLite a temporary table
+    // per row (measured: ten times the file writes of the whole correction).
+    sql::Statement change_in_pass(
+        db,
+        "UPDATE counts SET n = count_after(?1, term_id, queue_id, n) "
+        "WHERE term_id BETWEEN ?2 AND ?3 AND count_after(?1, term_id, queue_id, n) NOT IN (0, n)");
+    sql::Statement upsert(db,
+                          "INSERT INTO counts(term_id, queue_id, n) "
+                          "SELECT term_id, queue_id, n FROM count_rows(?) WHERE true "
+                          "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = excluded.n");
     sql::Statement remove(db, "DELETE FROM counts WHERE term_id = ? AND queue_id = ?");
     sql::Statement drop_term(db,
                              "DELETE FROM terms WHERE id = ? AND NOT EXISTS "
@@ -152,28 +168,19 @@ class CountDelta {
         db,
         "UPDATE queues SET documents = documents + ?, tokens = tokens + ? "
         "WHERE id = ?");
-    for (const sql::Statement* st : {&find_term, &add_term, &get, &insert, &update,
+    for (const sql::Statement* st : {&find_term, &add_term, &change_in_pass, &upsert,
                                      &remove, &drop_term, &queue_totals}) {
       if (!st->ok()) return Status::IoError(path + ": " + st->error());
     }
 
     // The (term, queue) sums that change something; per term, whether one
     // adds (the term may have to be made) and whether one takes away.
-    struct Row {
-      int64_t term_id;
-      int64_t queue_id;
-      int64_t n;
-      uint32_t term;
-    };
-    std::vector<Row> rows;
     std::vector<uint8_t> adds(terms_.size(), 0), takes(terms_.size(), 0);
     for (size_t q = 0; q < queue_ids_.size(); ++q) {
       const std::vector<int64_t>& column = sums_[q];
       for (uint32_t term = 0; term < column.size(); ++term) {
         const int64_t n = column[term];
-        if (n == 0) continue;
-        rows.push_back({0, queue_ids_[q], n, term});
-        (n > 0 ? adds : takes)[term] = 1;
+        if (n != 0) (n > 0 ? adds : takes)[term] = 1;
       }
     }
     // Term ids, looked up (or made) in byte order of the terms.
@@ -182,60 +189,145 @@ class CountDelta {
       if (adds[t] || takes[t]) order.push_back(t);
     }
     std::sort(order.begin(), order.end(), [&](uint32_t a, uint32_t b) {
-      return *terms_[a] < *terms_[b];
+      return terms_.term(a) < terms_.term(b);
     });
+    // The vocabulary's size, roughly (ids are not reused), decides between
+    // a read per term and one pass over the table, here and for the counts.
+    int64_t largest_id = 0;
+    {
+      sql::Statement st(db, "SELECT IFNULL(MAX(id), 0) FROM terms");
+      if (!st.ok() || st.Step() != SQLITE_ROW) return sql::ErrorStatus(db, path);
+      largest_id = st.ColumnInt(0);
+    }
     std::vector<int64_t> term_ids(terms_.size(), 0);
+    if (static_cast<int64_t>(order.size()) * 4 > largest_id && !order.empty()) {
+      // terms' index on text is in byte order (SQLite's BINARY collation is
+      // memcmp, as std::string's <), the order of `order`: one merge.
+      sql::Statement scan(db, "SELECT text, id FROM terms WHERE text >= ? ORDER BY text");
+      if (!scan.ok()) return Status::IoError(path + ": " + scan.error());
+      scan.Bind(1, terms_.term(order[0]));
+      size_t j = 0;
+      int rc = SQLITE_DONE;
+      while (j < order.size() && (rc = scan.Step()) == SQLITE_ROW) {
+        const std::string_view text = scan.ColumnText(0);
+        while (j < order.size() && std::string_view(terms_.term(order[j])) < text) ++j;
+        if (j < order.size() && terms_.term(order[j]) == text) term_ids[order[j++]] = scan.ColumnInt(1);
+      }
+      if (j < order.size() && rc != SQLITE_DONE) return sql::ErrorStatus(db, path);
+    } else {
+      for (uint32_t t : order) {
+        find_term.Bind(1, terms_.term(t));
+        int rc = find_term.Step();
+        if (rc == SQLITE_ROW) term_ids[t] = find_term.ColumnInt(0);
+        find_term.Reset();
+        if (rc != SQLITE_ROW && rc != SQLITE_DONE) return sql::ErrorStatus(db, path);
+      }
+    }
+    // Terms not in the vocabulary yet join it (in byte order).
     for (uint32_t t : order) {
-      find_term.Bind(1, *terms_[t]);
-      int rc = find_term.Step();
-      if (rc == SQLITE_ROW) term_ids[t] = find_term.ColumnInt(0);
-      find_term.Reset();
-      if (rc == SQLITE_ROW) continue;
-      if (rc != SQLITE_DONE) return sql::ErrorStatus(db, path);
+      if (term_ids[t] != 0) continue;
       if (takes[t])
         return Status::Corruption(
             path + ": a learned term is missing from the vocabulary");
-      Status s = add_term.Bind(1, *terms_[t]).Run();
+      Status s = add_term.Bind(1, terms_.term(t)).Run();
       if (!s.ok()) return s;
       term_ids[t] = sqlite3_last_insert_rowid(db);
     }
-    for (Row& r : rows) r.term_id = term_ids[r.term];
-    std::sort(rows.begin(), rows.end(), [](const Row& a, const Row& b) {
-      return a.term_id != b.term_id ? a.term_id < b.term_id
-                                    : a.queue_id < b.queue_id;
-    });
+    // The rows in key order (term id, queue id): the terms by id, each
+    // term's sums by queue id.
+    std::sort(order.begin(), order.end(),
+              [&](uint32_t a, uint32_t b) { return term_ids[a] < term_ids[b]; });
+    std::vector<size_t> columns(queue_ids_.size());
+    for (size_t q = 0; q < columns.size(); ++q) columns[q] = q;
+    std::sort(columns.begin(), columns.end(),
+              [&](size_t a, size_t b) { return queue_ids_[a] < queue_ids_[b]; });
+    std::vector<Row> rows;
+    for (uint32_t t : order) {
+      for (size_t q : columns) {
+        const std::vector<int64_t>& column = sums_[q];
+        if (t < column.size() && column[t] != 0)
+          rows.push_back({term_ids[t], queue_ids_[q], column[t], t});
+      }
+    }
 
-    // Queue names, for the row digests of the running sum.
+    // The counts of the rows, before and after. When the change touches a
+    // large part of counts, one statement passes over it in key order and
+    // changes what changes (count_rows.h, count_after): a pass costs about a
+    // tenth of a statement per row. Otherwise each term's rows are read,
+    // and the new counts written by one statement (count_rows). The rows
+    // left are those that begin (inserted) and those that end (deleted).
+    std::vector<CountRow> deltas;
+    deltas.reserve(rows.size());
+    for (const Row& r : rows) deltas.push_back({r.term_id, r.queue_id, r.n});
+    std::vector<int64_t> before(rows.size(), 0);
+    std::vector<uint8_t> seen(rows.size(), 0);
+    size_t touched_terms = 0;
+    for (size_t i = 0; i < rows.size(); ++i) {
+      touched_terms += i == 0 || rows[i].term_id != rows[i - 1].term_id;
+    }
+    const bool pass = static_cast<int64_t>(touched_terms) * 4 > largest_id;
+    std::vector<CountRow> written;  // the rows the second statement writes
+    if (pass && !rows.empty()) {
+      CountChanges changes{&deltas, &before, &seen};
+      BindCountChanges(change_in_pass.handle(), 1, &changes);
+      change_in_pass.Bind(2, rows.front().term_id).Bind(3, rows.back().term_id);
+      if (Status s = change_in_pass.Run(); !s.ok()) return s;
+      if (changes.negative >= 0) {
+        const Row& r = rows[static_cast<size_t>(changes.negative)];
+        return Damaged(db, path, r.queue_id, terms_.term(r.term));
+      }
+      for (size_t i = 0; i < rows.size(); ++i) {
+        if (!seen[i] && rows[i].n < 0)
+          return Damaged(db, path, rows[i].queue_id, terms_.term(rows[i].term));
+        if (!seen[i]) written.push_back({rows[i].term_id, rows[i].queue_id, rows[i].n});
+      }
+    } else {
+      if (Status s = ReadBefore(db, path, rows, &before); !s.ok()) return s;
+      for (size_t i = 0; i < rows.size(); ++i) {
+        const int64_t after = before[i] + rows[i].n;
+        if (after < 0) return Damaged(db, path, rows[i].queue_id, terms_.term(rows[i].term));
+        if (after > 0) written.push_back({rows[i].term_id, rows[i].queue_id, after});
+      }
+    }
+
+    // The running sum's row digests (two SHA-256 per row) are computed on a
+    // thread of their own while the rest is written.
     std::unordered_map<int64_t, std::string> queue_names;
     if (running) {
       if (Status s = ReadQueueNames(db, path, &queue_names); !s.ok()) return s;
     }
+    struct Joiner {
+      std::thread thread;
+      ~Joiner() {
+        if (thread.joinable()) thread.join();
+      }
+    } hashing;
+    if (running) {
+      hashing.thread = std::thread([&, running] {
+        for (size_t i = 0; i < rows.size(); ++i) {
+          const Row& r = rows[i];
+          running->Change(terms_.term(r.term), queue_names.at(r.queue_id), before[i],
+                          before[i] + r.n);
+        }
+      });
+    }
+    if (!written.empty()) {
+      BindCountRows(upsert.handle(), 1, &written);
+      if (Status s = upsert.Run(); !s.ok()) return s;
+    }
     bool emptied = false;  // a row of the current term was deleted
     for (size_t i = 0; i < rows.size(); ++i) {
       const Row& r = rows[i];
-      Status s;
-      get.Bind(1, r.term_id).Bind(2, r.queue_id);
-      const int rc = get.Step();
-      const int64_t before = rc == SQLITE_ROW ? get.ColumnInt(0) : 0;
-      get.Reset();
-      if (rc != SQLITE_ROW && rc != SQLITE_DONE) return sql::ErrorStatus(db, path);
-      const int64_t after = before + r.n;
-      if (after < 0) return Damaged(db, path, r.queue_id, *terms_[r.term]);
-      if (before == 0) {
-        s = insert.Bind(1, r.term_id).Bind(2, r.queue_id).Bind(3, after).Run();
-      } else if (after == 0) {
-        s = remove.Bind(1, r.term_id).Bind(2, r.queue_id).Run();
+      if (before[i] + r.n == 0) {
+        Status s = remove.Bind(1, r.term_id).Bind(2, r.queue_id).Run();
+        if (!s.ok()) return s;
         emptied = true;
-      } else {
-        s = update.Bind(1, after).Bind(2, r.term_id).Bind(3, r.queue_id).Run();
       }
-      if (!s.ok()) return s;
-      if (running) running->Change(*terms_[r.term], queue_names[r.queue_id], before, after);
       const bool last_of_term =
           i + 1 == rows.size() || rows[i + 1].term_id != r.term_id;
       if (last_of_term) {
         if (emptied && drop_terms) {
-          s = drop_term.Bind(1, r.term_id).Bind(2, r.term_id).Run();
+          Status s = drop_term.Bind(1, r.term_id).Bind(2, r.term_id).Run();
           if (!s.ok()) return s;
           *dropped += sqlite3_changes(db);
         }
@@ -264,6 +356,90 @@ class CountDelta {
     int64_t documents = 0;
     int64_t tokens = 0;
   };
+  // The index of the queue's column, made on first use, with its totals
+  // changed by one document of `tokens` tokens (sign +1 or -1).
+  size_t Column(int64_t queue_id, int sign, int64_t tokens) {
+    size_t q = 0;
+    while (q < queue_ids_.size() && queue_ids_[q] != queue_id) ++q;
+    if (q == queue_ids_.size()) {
+      queue_ids_.push_back(queue_id);
+      sums_.emplace_back();
+      totals_.emplace_back();
+    }
+    totals_[q].documents += sign;
+    totals_[q].tokens += sign * tokens;
+    return q;
+  }
+
+  // One term of a document: where its bytes are in text_, its count, its
+  // hash, its number in terms_.
+  struct Entry {
+    size_t at;
+    size_t length;
+    int64_t n;
+    uint64_t hash;
+    uint32_t number;
+  };
+
+  // Reads the document's term counts into entries_, each with its number
+  // (made on first sight). The table is prefetched for the whole document
+  // before it is read: a document's terms are spread over all of it, and
+  // the lookups were most of the time of a correction, waiting on memory.
+  // False (and the document noted as malformed) when they do not decode.
+  bool Number(const StoredDocument& doc) {
+    entries_.clear();
+    text_.clear();
+    TermCountsReader reader(doc.term_counts);
+    std::string_view term;
+    int64_t n = 0;
+    while (reader.Next(&term, &n)) {
+      const uint64_t hash = TermNumbering::Hash(term);
+      terms_.Prefetch(hash);
+      entries_.push_back({text_.size(), term.size(), n, hash, 0});
+      text_.append(term);
+    }
+    if (!reader.ok()) {
+      if (malformed_ < 0) malformed_ = doc.ledger_id;
+      return false;
+    }
+    for (Entry& e : entries_) {
+      e.number = terms_.Number(std::string_view(text_).substr(e.at, e.length), e.hash);
+    }
+    return true;
+  }
+
+  // One (term, queue) sum to write; term is the term's number in terms_.
+  struct Row {
+    int64_t term_id;
+    int64_t queue_id;
+    int64_t n;
+    uint32_t term;
+  };
+
+  // before[i] = the count of rows[i] now, 0 when it has no row, read term
+  // by term. REQUIRES: rows sorted by (term_id, queue_id).
+  static Status ReadBefore(sqlite3* db, const std::string& path,
+                           const std::vector<Row>& rows,
+                           std::vector<int64_t>* before) {
+    sql::Statement st(db, "SELECT queue_id, n FROM counts WHERE term_id = ? ORDER BY queue_id");
+    if (!st.ok()) return Status::IoError(path + ": " + st.error());
+    size_t i = 0;
+    while (i < rows.size()) {
+      const int64_t term_id = rows[i].term_id;
+      st.Bind(1, term_id);
+      int rc;
+      while ((rc = st.Step()) == SQLITE_ROW) {
+        const int64_t queue_id = st.ColumnInt(0);
+        while (i < rows.size() && rows[i].term_id == term_id && rows[i].queue_id < queue_id) ++i;
+        if (i < rows.size() && rows[i].term_id == term_id && rows[i].queue_id == queue_id)
+          (*before)[i++] = st.ColumnInt(1);
+      }
+      st.Reset();
+      if (rc != SQLITE_DONE) return sql::ErrorStatus(db, path);
+      while (i < rows.size() && rows[i].term_id == term_id) ++i;
+    }
+    return Status::Ok();
+  }
 
   static Status Damaged(sqlite3* db, const std::string& path, int64_t queue_id,
                         const std::string& term) {
@@ -276,8 +452,10 @@ class CountDelta {
                               "' is smaller than its documents' own");
   }
 
-  std::unordered_map<std::string, uint32_t> term_index_;
-  std::vector<const std::string*> terms_;  // keys of term_index_, by index
+  TermNumbering terms_;  // every term met, numbered
+  std::vector<Entry> entries_;  // the document being summed (Number)
+  std::string text_;            // its terms' bytes, one after the other
+  int64_t malformed_ = -1;  // the first ledger entry that did not decode
   // Per queue touched (a handful): its id, its sums by term index (as long
   // as the terms it has seen), its documents and N(q).
   std::vector<int64_t> queue_ids_;
@@ -342,8 +520,11 @@ Status Store::MoveInTransaction(
     const StoredDocument& doc = m.doc;
     if (!m.in_model) continue;  // counted neither before nor after
     if (doc.entry.in_model && doc.queue_id == m.queue_id) continue;  // back
-    if (doc.entry.in_model) counts.Add(doc.queue_id, doc, -1);
-    counts.Add(m.queue_id, doc, +1);
+    if (doc.entry.in_model) {
+      counts.Move(doc.queue_id, m.queue_id, doc);
+    } else {
+      counts.Add(m.queue_id, doc, +1);
+    }
     s = relabel.Bind(1, m.queue_id).Bind(2, doc.ledger_id).Run();
     if (!s.ok()) return s;
   }
@@ -363,16 +544,24 @@ Status Store::ResolveDocument(const DocumentName& name, Resolution* out) {
   if (!read.status().ok()) return read.status();
   // At most this many candidates are listed for an ambiguous name.
   constexpr int64_t kShown = 5;
-  auto query = [&](const std::string& where,
+  // Prepared once per store: a correction names thousands of documents.
+  auto query = [&](size_t which, const std::string& where,
                    const std::vector<std::string>& values,
                    bool* done) -> Status {
     *done = false;
-    sql::Statement st(
-        db,
-        "SELECT l.digest, q.name, l.source, l.learned_at, l.tokens, l.in_model "
-        "FROM ledger l JOIN queues q ON q.id = l.queue_id WHERE " +
-            where + " ORDER BY l.digest LIMIT ?");
+    sql::Statement& st = resolve_statements_[which];
+    if (!st.ok()) {
+      st = sql::Statement(
+          db,
+          "SELECT l.digest, q.name, l.source, l.learned_at, l.tokens, l.in_model "
+          "FROM ledger l JOIN queues q ON q.id = l.queue_id WHERE " +
+              where + " ORDER BY l.digest LIMIT ?");
+    }
     if (!st.ok()) return Status::IoError(path_ + ": " + st.error());
+    struct ResetAfter {
+      sql::Statement* st;
+      ~ResetAfter() { st->Reset(); }
+    } reset_after{&st};
     int i = 1;
     for (const std::string& v : values) st.Bind(i++, v);
     st.Bind(i, kShown + 1);
@@ -399,17 +588,17 @@ Status Store::ResolveDocument(const DocumentName& name, Resolution* out) {
   bool done = false;
   Status s;
   if (!name.digest.empty()) {
-    s = query("l.digest = ?", {name.digest}, &done);
+    s = query(0, "l.digest = ?", {name.digest}, &done);
     if (!s.ok() || done) return s;
   }
   if (!name.source.empty()) {
-    s = query("l.source = ?", {name.source}, &done);
+    s = query(1, "l.source = ?", {name.source}, &done);
     if (!s.ok() || done) return s;
   }
   if (!name.prefix.empty()) {
     // Digests are lowercase hex, and 'g' sorts after every hex digit, so
     // [p, p + "g") holds exactly the digests that begin with p.
-    s = query("l.digest >= ? AND l.digest < ?",
+    s = query(2, "l.digest >= ? AND l.digest < ?",
               {name.prefix, name.prefix + "g"}, &done);
     if (!s.ok()) return s;
   }
@@ -670,13 +859,13 @@ Status Store::ApplyStateInTransaction(const VersionState& target,
     bool found = false;
     if (s = ledger.ById(id, &doc, &found); !s.ok()) return s;
     if (!found) return Status::Corruption(path_ + ": a member is not in the ledger");
-    counts.Add(queue, doc, -1);
     if (w == wanted.end()) {
+      counts.Add(queue, doc, -1);
       if (s = leave.Bind(1, id).Run(); !s.ok()) return s;
       delta.changes.push_back({id, queue, 0});
       ++delta.removed;
     } else {
-      counts.Add(w->second, doc, +1);
+      counts.Move(queue, w->second, doc);
     }
   }
   for (const auto& [id, queue] : target.members) {

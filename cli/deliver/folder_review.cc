@@ -94,7 +94,7 @@ class Planner {
 
   Status Run() {
     std::vector<QueueInfo> queues;
-    if (Status s = store_->ListQueues(&queues); !s.ok()) return s;
+    if (Status s = store_->ListQueues(&queues, Store::TermTally::kWithout); !s.ok()) return s;
     for (const QueueInfo& q : queues) {
       if (!q.retired) active_.insert(q.name);
     }
