@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <chrono>
+#include <future>
 #include <memory>
 #include <optional>
 #include <unordered_map>
@@ -75,7 +76,8 @@ Status CatchUp(Store* store, Store* writer,
 
 // Recounts every ledger document in batches, written through a second
 // connection while the first reads one snapshot of the ledger; then the
-// documents learned meanwhile.
+// documents learned meanwhile. A batch is written on a thread of its own
+// while the next one is read and tokenized, so that the two overlap.
 Status RecountLedger(Store* store, const RebuildRequest& request,
                      std::vector<std::unique_ptr<Tokenizer>>& tokenizers,
                      RebuildOutcome* out) {
@@ -85,6 +87,19 @@ Status RecountLedger(Store* store, const RebuildRequest& request,
   std::vector<std::pair<int64_t, std::string>> texts;
   std::vector<std::string> digests;  // of the texts, to name a document
   std::vector<RecountedDocument> docs;
+  // The batch being written, and its writing (declared after `writer`, so
+  // that a write still running is awaited before the connection closes).
+  std::vector<RecountedDocument> written;
+  std::future<Status> writing;
+  auto await_write = [&]() -> Status {
+    if (!writing.valid()) return Status::Ok();
+    Status w = writing.get();
+    if (w.ok()) {
+      out->recounted += static_cast<int64_t>(written.size());
+      ++out->batches;
+    }
+    return w;
+  };
   auto flush = [&]() -> Status {
     if (texts.empty()) return Status::Ok();
     Status r = RecountBatch(texts, tokenizers, &docs);
@@ -97,11 +112,13 @@ Status RecountLedger(Store* store, const RebuildRequest& request,
               "nothing was changed");
         }
       }
+      return r;
     }
-    if (r.ok()) r = writer->WriteRecounted(docs);
-    if (!r.ok()) return r;
-    out->recounted += static_cast<int64_t>(docs.size());
-    ++out->batches;
+    if (r = await_write(); !r.ok()) return r;
+    written.swap(docs);
+    writing = std::async(std::launch::async, [&writer, &written] {
+      return writer->WriteRecounted(written);
+    });
     texts.clear();
     digests.clear();
     return Status::Ok();
@@ -116,6 +133,7 @@ Status RecountLedger(Store* store, const RebuildRequest& request,
     return texts.size() >= request.batch ? flush() : Status::Ok();
   });
   if (s.ok()) s = flush();
+  if (Status w = await_write(); s.ok()) s = w;
   if (!s.ok()) return s;
   // Documents learned while the ledger was read.
   return CatchUp(store, writer.get(), tokenizers, request.batch, out);

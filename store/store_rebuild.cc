@@ -72,6 +72,12 @@ class SideCounts {
   Status AddCount(const std::string& term, int64_t queue, int64_t n) {
     return tables_.Add(queue, term, n);
   }
+  // The same for rows of ids TermId gave (in this transaction).
+  Status AddCounts(const std::vector<CountRow>& rows) { return tables_.AddAll(rows); }
+  // The recount's id of the term, which joins its vocabulary when missing.
+  Status TermId(const std::string& term, int64_t* id) {
+    return tables_.TermId(term, /*create=*/true, id);
+  }
 
   // documents(q) += documents, N(q) += tokens. A subtraction updates the
   // row in place: the upsert's new row would fail its CHECK first.
@@ -321,11 +327,23 @@ Status Store::WriteRecountedInTransaction(
                                                                                 sums.end());
   std::sort(ordered.begin(), ordered.end(),
             [](const auto& a, const auto& b) { return a.first < b.first; });
+  // Sorted by term, so each term's id is looked up once; then written in
+  // key order by one statement.
+  std::vector<CountRow> rows;
+  rows.reserve(ordered.size());
+  std::string_view term;
+  int64_t term_id = 0;
   for (const auto& [key, n] : ordered) {
-    if (Status s = side.AddCount(std::string(key.first), key.second, n);
-        !s.ok())
-      return s;
+    if (term_id == 0 || key.first != term) {
+      term = key.first;
+      if (Status s = side.TermId(std::string(term), &term_id); !s.ok()) return s;
+    }
+    rows.push_back({term_id, key.second, n});
   }
+  std::sort(rows.begin(), rows.end(), [](const CountRow& a, const CountRow& b) {
+    return a.term_id != b.term_id ? a.term_id < b.term_id : a.queue_id < b.queue_id;
+  });
+  if (Status s = side.AddCounts(rows); !s.ok()) return s;
   for (const auto& [queue, t] : totals) {
     if (Status s = side.AddTotals(queue, t.first, t.second); !s.ok()) return s;
   }
