@@ -1,6 +1,6 @@
 // Count rows held in memory, read by SQL as a table: the table-valued
 // function count_rows(?), whose argument is a pointer to a vector of
-// CountRow bound with BindCountRows. One statement then writes every row
+// CountRow bound with BindCountRows (and term_rows(?) for new terms). One statement then writes every row
 // (INSERT ... SELECT ... FROM count_rows(?)), instead of one statement per
 // row: SQLite's cost of running a statement (binding, stepping, resetting)
 // was most of the cost of writing a count (measured: about 0.85 µs a row
@@ -17,6 +17,7 @@
 #include <sqlite3.h>
 
 #include <cstdint>
+#include <string_view>
 #include <vector>
 
 #include "store/status.h"
@@ -29,13 +30,22 @@ struct CountRow {
   int64_t n = 0;
 };
 
-// Registers count_rows and count_after on the connection
+// A row of term_rows(?): the columns id and text (viewed, not copied: the
+// bytes must outlive the statement's run).
+struct TermRow {
+  int64_t id = 0;
+  std::string_view text;
+};
+
+// Registers count_rows, term_rows and count_after on the connection
 // (ConfigureStoreConnection does).
 Status RegisterCountRows(sqlite3* db);
 
 // Binds rows as parameter i of a statement that reads count_rows(?i). The
 // vector must outlive the statement's run (until it is reset).
 int BindCountRows(sqlite3_stmt* stmt, int i, const std::vector<CountRow>* rows);
+// The same for term_rows(?i).
+int BindTermRows(sqlite3_stmt* stmt, int i, const std::vector<TermRow>* rows);
 
 // Changes to counts that a statement applies while it passes over the
 // counts table, through the SQL function count_after(?i, term_id,

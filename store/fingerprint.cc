@@ -118,6 +118,16 @@ RowHasher& ThreadRowHasher() {
 
 }  // namespace
 
+void CountsSum::Add(const CountsSum& other) {
+  uint64_t carry = 0;
+  for (size_t i = 0; i < 4; ++i) {
+    const uint64_t t = limbs_[i] + other.limbs_[i];
+    const uint64_t c1 = t < other.limbs_[i] ? 1 : 0;
+    limbs_[i] = t + carry;
+    carry = c1 | (limbs_[i] < t ? 1 : 0);
+  }
+}
+
 void CountsSum::Add(std::string_view term, std::string_view queue, int64_t n, int sign) {
   unsigned char md[32];
   ThreadRowHasher().Digest(term, queue, n, md);

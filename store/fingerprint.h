@@ -38,6 +38,9 @@ class CountsSum {
     if (before > 0) Add(term, queue, before, -1);
     if (after > 0) Add(term, queue, after, 1);
   }
+  // Adds another sum (modulo 2^256): sums kept apart, say on two threads,
+  // then added, equal the one sum.
+  void Add(const CountsSum& other);
   std::string Hex() const;  // 64 hex digits, most significant first
   // False for anything but 64 hex digits.
   static bool FromHex(std::string_view hex, CountsSum* out);

@@ -12,6 +12,7 @@
 #include <unordered_map>
 #include <unordered_set>
 
+#include "store/count_writer.h"
 #include "store/fault_point.h"
 #include "store/queue_name.h"
 #include "store/schema.h"
@@ -467,24 +468,11 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
   std::vector<uint32_t> rank(nt);
   for (uint32_t r = 0; r < nt; ++r) rank[by_text[r]] = r;
   const size_t nq = queue_names.size();
-  std::vector<uint32_t> queue_rank(nq);
-  {
-    std::vector<uint32_t> by_name(nq);
-    for (uint32_t q = 0; q < nq; ++q) by_name[q] = q;
-    std::sort(by_name.begin(), by_name.end(),
-              [&](uint32_t a, uint32_t b) { return queue_names[a] < queue_names[b]; });
-    for (uint32_t r = 0; r < nq; ++r) queue_rank[by_name[r]] = r;
-  }
 
   // Aggregate N(q, w) and the queue totals over the new documents, one
-  // queue at a time through one dense array.
-  struct Sum {
-    uint32_t term_rank;
-    uint32_t queue_rank;
-    uint32_t queue;
-    int64_t n;
-  };
-  std::vector<Sum> sums;
+  // queue at a time through one dense array; each (term, queue) sum is then
+  // written once (count_writer.h), which puts them in key order.
+  std::vector<CountChange> changes;
   std::vector<int64_t> queue_docs(nq, 0), queue_tokens(nq, 0);
   std::vector<std::vector<size_t>> docs_of_queue(nq);
   for (size_t i = 0; i < docs.size(); ++i) {
@@ -505,69 +493,28 @@ Status Store::LearnInTransaction(const LearnBatch& batch, const std::string& now
         }
       }
       for (uint32_t t : touched) {
-        sums.push_back({rank[t], queue_rank[q], static_cast<uint32_t>(q), dense[t]});
+        changes.push_back({rank[t], queue_ids[q], dense[t]});
         dense[t] = 0;
       }
       touched.clear();
     }
   }
-  std::sort(sums.begin(), sums.end(), [](const Sum& a, const Sum& b) {
-    return a.term_rank != b.term_rank ? a.term_rank < b.term_rank : a.queue_rank < b.queue_rank;
-  });
 
   {
-    sql::Statement find(db, "SELECT id FROM terms WHERE text = ?");
-    sql::Statement add(db, "INSERT INTO terms(text) VALUES(?)");
-    // The current count is read (for a term the vocabulary had) and the new
-    // one written as it is: an upsert with RETURNING n made SQLite write a
-    // temporary file for every row (as in store_changes.cc's CountDelta).
-    sql::Statement get(db, "SELECT n FROM counts WHERE term_id = ? AND queue_id = ?");
-    sql::Statement insert(db, "INSERT INTO counts(term_id, queue_id, n) VALUES(?, ?, ?)");
-    sql::Statement update(db, "UPDATE counts SET n = ? WHERE term_id = ? AND queue_id = ?");
+    // The batch's terms by rank, which is byte order.
+    std::vector<std::string_view> texts(nt);
+    for (uint32_t r = 0; r < nt; ++r) texts[r] = batch.term(by_text[r]);
     if (sum_state_ == SumState::kFresh) {
       if (Status s = StartRunningSumInTransaction(); !s.ok()) return fail(s);
     }
-    const bool track = sum_state_ == SumState::kRunning;
-    if (!find.ok() || !add.ok() || !get.ok() || !insert.ok() || !update.ok()) {
-      return Status::IoError(path_ + ": " + find.error() + add.error() + get.error() +
-                             insert.error() + update.error());
-    }
-    int64_t last_rank = -1, term_id = 0;
-    bool new_term = false;
-    for (const Sum& sum : sums) {
-      if (sum.term_rank != last_rank) {
-        std::string_view text = batch.term(by_text[sum.term_rank]);
-        find.Bind(1, text);
-        new_term = find.Step() != SQLITE_ROW;
-        if (!new_term) {
-          term_id = find.ColumnInt(0);
-        } else {
-          Status s = add.Bind(1, text).Run();
-          if (!s.ok()) return fail(s);
-          term_id = sqlite3_last_insert_rowid(db);
-          ++result->new_terms;
-        }
-        find.Reset();
-        last_rank = sum.term_rank;
-      }
-      int64_t before = 0;
-      if (!new_term) {
-        get.Bind(1, term_id).Bind(2, queue_ids[sum.queue]);
-        const int rc = get.Step();
-        if (rc == SQLITE_ROW) before = get.ColumnInt(0);
-        get.Reset();
-        if (rc != SQLITE_ROW && rc != SQLITE_DONE) return fail(sql::ErrorStatus(db, path_));
-      }
-      const int64_t after = before + sum.n;
-      Status s = before == 0
-                     ? insert.Bind(1, term_id).Bind(2, queue_ids[sum.queue]).Bind(3, after).Run()
-                     : update.Bind(1, after).Bind(2, term_id).Bind(3, queue_ids[sum.queue]).Run();
-      if (!s.ok()) return fail(s);
-      if (track) {
-        running_sum_.Change(batch.term(by_text[sum.term_rank]), queue_names[sum.queue],
-                            after - sum.n, after);
-      }
-    }
+    CountWriteOptions options;
+    options.terms_sorted = true;
+    CountWriteResult written;
+    Status s = WriteCountChanges(db, path_, texts, std::move(changes), options,
+                                 sum_state_ == SumState::kRunning ? &running_sum_ : nullptr,
+                                 &written);
+    if (!s.ok()) return fail(s);
+    result->new_terms += written.new_terms;
   }
 
   {

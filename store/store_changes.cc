@@ -12,7 +12,7 @@
 #include <utility>
 #include <vector>
 
-#include "store/count_rows.h"
+#include "store/count_writer.h"
 #include "store/fault_point.h"
 #include "store/store.h"
 #include "store/term_counts_codec.h"
@@ -35,16 +35,6 @@ struct StoredDocument {
   LedgerEntry entry;
   std::string term_counts;
 };
-
-// Every queue's name by id (retired ones too).
-Status ReadQueueNames(sqlite3* db, const std::string& path,
-                  std::unordered_map<int64_t, std::string>* out) {
-  sql::Statement st(db, "SELECT id, name FROM queues");
-  if (!st.ok()) return Status::IoError(path + ": " + st.error());
-  int rc;
-  while ((rc = st.Step()) == SQLITE_ROW) out->emplace(st.ColumnInt(0), st.ColumnText(1));
-  return rc == SQLITE_DONE ? Status::Ok() : sql::ErrorStatus(db, path);
-}
 
 // Reads ledger rows with their term counts, by digest or by ledger id,
 // through statements prepared once.
@@ -135,6 +125,22 @@ class CountDelta {
     }
   }
 
+  // Adds another delta's sums and totals to this one's.
+  void Add(const CountDelta& other) {
+    if (other.malformed_ >= 0 && malformed_ < 0) malformed_ = other.malformed_;
+    std::vector<uint32_t> number(other.terms_.size());
+    for (uint32_t t = 0; t < other.terms_.size(); ++t) number[t] = terms_.Number(other.terms_.term(t));
+    for (size_t oq = 0; oq < other.queue_ids_.size(); ++oq) {
+      const size_t q = ColumnOf(other.queue_ids_[oq]);
+      totals_[q].documents += other.totals_[oq].documents;
+      totals_[q].tokens += other.totals_[oq].tokens;
+      std::vector<int64_t>& column = sums_[q];
+      if (column.size() < terms_.size()) column.resize(terms_.size(), 0);
+      const std::vector<int64_t>& theirs = other.sums_[oq];
+      for (uint32_t t = 0; t < theirs.size(); ++t) column[number[t]] += theirs[t];
+    }
+  }
+
   // Writes the sums. Terms a sum adds to are created when missing. With
   // drop_terms, a term whose counts are all gone is deleted from the
   // vocabulary (counted in *dropped). With running (not null), keeps the
@@ -147,196 +153,28 @@ class CountDelta {
       return Status::Corruption(path + ": the term counts of ledger entry " +
                                 std::to_string(malformed_) + " do not decode");
     }
-    sql::Statement find_term(db, "SELECT id FROM terms WHERE text = ?");
-    sql::Statement add_term(db, "INSERT INTO terms(text) VALUES(?)");
-    // The counts before the change are needed (for the fingerprint's sum
-    // and to find damage): change_in_pass records them as it goes, or they
-    // are read first. A statement with RETURNING n would cost SQLite a
-    // temporary table per row (measured: ten times the file writes of the
-    // whole correction).
-    sql::Statement change_in_pass(
-        db,
-        "UPDATE counts SET n = count_after(?1, term_id, queue_id, n) "
-        "WHERE term_id BETWEEN ?2 AND ?3 AND count_after(?1, term_id, queue_id, n) NOT IN (0, n)");
-    sql::Statement upsert(db,
-                          "INSERT INTO counts(term_id, queue_id, n) "
-                          "SELECT term_id, queue_id, n FROM count_rows(?) WHERE true "
-                          "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = excluded.n");
-    sql::Statement remove(db, "DELETE FROM counts WHERE term_id = ? AND queue_id = ?");
-    sql::Statement drop_term(db,
-                             "DELETE FROM terms WHERE id = ? AND NOT EXISTS "
-                             "(SELECT 1 FROM counts WHERE term_id = ?)");
     sql::Statement queue_totals(
         db,
         "UPDATE queues SET documents = documents + ?, tokens = tokens + ? "
         "WHERE id = ?");
-    for (const sql::Statement* st : {&find_term, &add_term, &change_in_pass, &upsert,
-                                     &remove, &drop_term, &queue_totals}) {
-      if (!st->ok()) return Status::IoError(path + ": " + st->error());
-    }
-
-    // The (term, queue) sums that change something; per term, whether one
-    // adds (the term may have to be made) and whether one takes away.
-    std::vector<uint8_t> adds(terms_.size(), 0), takes(terms_.size(), 0);
+    if (!queue_totals.ok()) return Status::IoError(path + ": " + queue_totals.error());
+    std::vector<std::string_view> terms(terms_.size());
+    for (uint32_t t = 0; t < terms_.size(); ++t) terms[t] = terms_.term(t);
+    std::vector<CountChange> changes;
     for (size_t q = 0; q < queue_ids_.size(); ++q) {
       const std::vector<int64_t>& column = sums_[q];
-      for (uint32_t term = 0; term < column.size(); ++term) {
-        const int64_t n = column[term];
-        if (n != 0) (n > 0 ? adds : takes)[term] = 1;
+      for (uint32_t t = 0; t < column.size(); ++t) {
+        if (column[t] != 0) changes.push_back({t, queue_ids_[q], column[t]});
       }
     }
-    // Term ids, looked up (or made) in byte order of the terms.
-    std::vector<uint32_t> order;
-    for (uint32_t t = 0; t < terms_.size(); ++t) {
-      if (adds[t] || takes[t]) order.push_back(t);
-    }
-    std::sort(order.begin(), order.end(), [&](uint32_t a, uint32_t b) {
-      return terms_.term(a) < terms_.term(b);
-    });
-    // The largest term id (the vocabulary's size, give or take the ids of
-    // terms that left) decides between a read per term and one pass over
-    // the table, here and for the counts.
-    int64_t largest_id = 0;
-    {
-      sql::Statement st(db, "SELECT IFNULL(MAX(id), 0) FROM terms");
-      if (!st.ok() || st.Step() != SQLITE_ROW) return sql::ErrorStatus(db, path);
-      largest_id = st.ColumnInt(0);
-    }
-    std::vector<int64_t> term_ids(terms_.size(), 0);
-    if (static_cast<int64_t>(order.size()) * 4 > largest_id && !order.empty()) {
-      // terms' index on text is in byte order (SQLite's BINARY collation is
-      // memcmp, as std::string's <), the order of `order`: one merge.
-      sql::Statement scan(db, "SELECT text, id FROM terms WHERE text >= ? ORDER BY text");
-      if (!scan.ok()) return Status::IoError(path + ": " + scan.error());
-      scan.Bind(1, terms_.term(order[0]));
-      size_t j = 0;
-      int rc = SQLITE_DONE;
-      while (j < order.size() && (rc = scan.Step()) == SQLITE_ROW) {
-        const std::string_view text = scan.ColumnText(0);
-        while (j < order.size() && std::string_view(terms_.term(order[j])) < text) ++j;
-        if (j < order.size() && terms_.term(order[j]) == text) term_ids[order[j++]] = scan.ColumnInt(1);
-      }
-      if (j < order.size() && rc != SQLITE_DONE) return sql::ErrorStatus(db, path);
-    } else {
-      for (uint32_t t : order) {
-        find_term.Bind(1, terms_.term(t));
-        int rc = find_term.Step();
-        if (rc == SQLITE_ROW) term_ids[t] = find_term.ColumnInt(0);
-        find_term.Reset();
-        if (rc != SQLITE_ROW && rc != SQLITE_DONE) return sql::ErrorStatus(db, path);
-      }
-    }
-    // Terms not in the vocabulary yet join it (in byte order).
-    for (uint32_t t : order) {
-      if (term_ids[t] != 0) continue;
-      if (takes[t])
-        return Status::Corruption(
-            path + ": a learned term is missing from the vocabulary");
-      Status s = add_term.Bind(1, terms_.term(t)).Run();
-      if (!s.ok()) return s;
-      term_ids[t] = sqlite3_last_insert_rowid(db);
-    }
-    // The rows in key order (term id, queue id): the terms by id, each
-    // term's sums by queue id.
-    std::sort(order.begin(), order.end(),
-              [&](uint32_t a, uint32_t b) { return term_ids[a] < term_ids[b]; });
-    std::vector<size_t> columns(queue_ids_.size());
-    for (size_t q = 0; q < columns.size(); ++q) columns[q] = q;
-    std::sort(columns.begin(), columns.end(),
-              [&](size_t a, size_t b) { return queue_ids_[a] < queue_ids_[b]; });
-    std::vector<Row> rows;
-    for (uint32_t t : order) {
-      for (size_t q : columns) {
-        const std::vector<int64_t>& column = sums_[q];
-        if (t < column.size() && column[t] != 0)
-          rows.push_back({term_ids[t], queue_ids_[q], column[t], t});
-      }
-    }
-
-    // The counts of the rows, before and after. When the change touches a
-    // large part of counts, one statement passes over it in key order and
-    // changes what changes (count_rows.h, count_after): a pass costs about a
-    // tenth of a statement per row. Otherwise each term's rows are read,
-    // and the new counts written by one statement (count_rows). The rows
-    // left are those that begin (inserted) and those that end (deleted).
-    std::vector<CountRow> deltas;
-    deltas.reserve(rows.size());
-    for (const Row& r : rows) deltas.push_back({r.term_id, r.queue_id, r.n});
-    std::vector<int64_t> before(rows.size(), 0);
-    std::vector<uint8_t> seen(rows.size(), 0);
-    size_t touched_terms = 0;
-    for (size_t i = 0; i < rows.size(); ++i) {
-      touched_terms += i == 0 || rows[i].term_id != rows[i - 1].term_id;
-    }
-    const bool pass = static_cast<int64_t>(touched_terms) * 4 > largest_id;
-    std::vector<CountRow> written;  // the rows the second statement writes
-    if (pass && !rows.empty()) {
-      CountChanges changes{&deltas, &before, &seen};
-      BindCountChanges(change_in_pass.handle(), 1, &changes);
-      change_in_pass.Bind(2, rows.front().term_id).Bind(3, rows.back().term_id);
-      if (Status s = change_in_pass.Run(); !s.ok()) return s;
-      if (changes.negative >= 0) {
-        const Row& r = rows[static_cast<size_t>(changes.negative)];
-        return Damaged(db, path, r.queue_id, terms_.term(r.term));
-      }
-      for (size_t i = 0; i < rows.size(); ++i) {
-        if (!seen[i] && rows[i].n < 0)
-          return Damaged(db, path, rows[i].queue_id, terms_.term(rows[i].term));
-        if (!seen[i]) written.push_back({rows[i].term_id, rows[i].queue_id, rows[i].n});
-      }
-    } else {
-      if (Status s = ReadBefore(db, path, rows, &before); !s.ok()) return s;
-      for (size_t i = 0; i < rows.size(); ++i) {
-        const int64_t after = before[i] + rows[i].n;
-        if (after < 0) return Damaged(db, path, rows[i].queue_id, terms_.term(rows[i].term));
-        if (after > 0) written.push_back({rows[i].term_id, rows[i].queue_id, after});
-      }
-    }
-
-    // The running sum's row digests (two SHA-256 per row) are computed on a
-    // thread of their own while the rest is written.
-    std::unordered_map<int64_t, std::string> queue_names;
-    if (running) {
-      if (Status s = ReadQueueNames(db, path, &queue_names); !s.ok()) return s;
-    }
-    struct Joiner {
-      std::thread thread;
-      ~Joiner() {
-        if (thread.joinable()) thread.join();
-      }
-    } hashing;
-    if (running) {
-      hashing.thread = std::thread([&, running] {
-        for (size_t i = 0; i < rows.size(); ++i) {
-          const Row& r = rows[i];
-          running->Change(terms_.term(r.term), queue_names.at(r.queue_id), before[i],
-                          before[i] + r.n);
-        }
-      });
-    }
-    if (!written.empty()) {
-      BindCountRows(upsert.handle(), 1, &written);
-      if (Status s = upsert.Run(); !s.ok()) return s;
-    }
-    bool emptied = false;  // a row of the current term was deleted
-    for (size_t i = 0; i < rows.size(); ++i) {
-      const Row& r = rows[i];
-      if (before[i] + r.n == 0) {
-        Status s = remove.Bind(1, r.term_id).Bind(2, r.queue_id).Run();
-        if (!s.ok()) return s;
-        emptied = true;
-      }
-      const bool last_of_term =
-          i + 1 == rows.size() || rows[i + 1].term_id != r.term_id;
-      if (last_of_term) {
-        if (emptied && drop_terms) {
-          Status s = drop_term.Bind(1, r.term_id).Bind(2, r.term_id).Run();
-          if (!s.ok()) return s;
-          *dropped += sqlite3_changes(db);
-        }
-        emptied = false;
-      }
-    }
+    CountWriteOptions options;
+    options.drop_terms = drop_terms;
+    CountWriteResult written;
+    if (Status s = WriteCountChanges(db, path, terms, std::move(changes), options, running,
+                                     &written);
+        !s.ok())
+      return s;
+    *dropped += written.dropped_terms;
 
     std::vector<size_t> by_id(queue_ids_.size());
     for (size_t q = 0; q < by_id.size(); ++q) by_id[q] = q;
@@ -362,6 +200,14 @@ class CountDelta {
   // The index of the queue's column, made on first use, with its totals
   // changed by one document of `tokens` tokens (sign +1 or -1).
   size_t Column(int64_t queue_id, int sign, int64_t tokens) {
+    const size_t q = ColumnOf(queue_id);
+    totals_[q].documents += sign;
+    totals_[q].tokens += sign * tokens;
+    return q;
+  }
+
+  // The index of the queue's column, made on first use.
+  size_t ColumnOf(int64_t queue_id) {
     size_t q = 0;
     while (q < queue_ids_.size() && queue_ids_[q] != queue_id) ++q;
     if (q == queue_ids_.size()) {
@@ -369,8 +215,6 @@ class CountDelta {
       sums_.emplace_back();
       totals_.emplace_back();
     }
-    totals_[q].documents += sign;
-    totals_[q].tokens += sign * tokens;
     return q;
   }
 
@@ -410,50 +254,6 @@ class CountDelta {
       e.number = terms_.Number(std::string_view(text_).substr(e.at, e.length), e.hash);
     }
     return true;
-  }
-
-  // One (term, queue) sum to write; term is the term's number in terms_.
-  struct Row {
-    int64_t term_id;
-    int64_t queue_id;
-    int64_t n;
-    uint32_t term;
-  };
-
-  // before[i] = the count of rows[i] now, 0 when it has no row, read term
-  // by term. REQUIRES: rows sorted by (term_id, queue_id).
-  static Status ReadBefore(sqlite3* db, const std::string& path,
-                           const std::vector<Row>& rows,
-                           std::vector<int64_t>* before) {
-    sql::Statement st(db, "SELECT queue_id, n FROM counts WHERE term_id = ? ORDER BY queue_id");
-    if (!st.ok()) return Status::IoError(path + ": " + st.error());
-    size_t i = 0;
-    while (i < rows.size()) {
-      const int64_t term_id = rows[i].term_id;
-      st.Bind(1, term_id);
-      int rc;
-      while ((rc = st.Step()) == SQLITE_ROW) {
-        const int64_t queue_id = st.ColumnInt(0);
-        while (i < rows.size() && rows[i].term_id == term_id && rows[i].queue_id < queue_id) ++i;
-        if (i < rows.size() && rows[i].term_id == term_id && rows[i].queue_id == queue_id)
-          (*before)[i++] = st.ColumnInt(1);
-      }
-      st.Reset();
-      if (rc != SQLITE_DONE) return sql::ErrorStatus(db, path);
-      while (i < rows.size() && rows[i].term_id == term_id) ++i;
-    }
-    return Status::Ok();
-  }
-
-  static Status Damaged(sqlite3* db, const std::string& path, int64_t queue_id,
-                        const std::string& term) {
-    std::string name = "#" + std::to_string(queue_id);
-    sql::Statement st(db, "SELECT name FROM queues WHERE id = ?");
-    if (st.ok() && st.Bind(1, queue_id).Step() == SQLITE_ROW)
-      name = std::string(st.ColumnText(0));
-    return Status::Corruption(path + ": the count of term '" + term +
-                              "' in queue '" + name +
-                              "' is smaller than its documents' own");
   }
 
   TermNumbering terms_;  // every term met, numbered
@@ -519,19 +319,46 @@ Status Store::MoveInTransaction(
   }
   sql::Statement relabel(db, "UPDATE ledger SET queue_id = ?, in_model = 1 WHERE id = ?");
   if (!relabel.ok()) return Status::IoError(path_ + ": " + relabel.error());
-  CountDelta counts;
+  // The documents that change queue; their counts are summed on two
+  // threads, each half into a CountDelta of its own, then added (the sums
+  // were a sixth of a correction's time on one thread), while this one also
+  // relabels them in the ledger.
+  std::vector<const Moving*> changing;
   for (const Moving& m : docs) {
-    const StoredDocument& doc = m.doc;
     if (!m.in_model) continue;  // counted neither before nor after
-    if (doc.entry.in_model && doc.queue_id == m.queue_id) continue;  // back
-    if (doc.entry.in_model) {
-      counts.Move(doc.queue_id, m.queue_id, doc);
-    } else {
-      counts.Add(m.queue_id, doc, +1);
-    }
-    s = relabel.Bind(1, m.queue_id).Bind(2, doc.ledger_id).Run();
-    if (!s.ok()) return s;
+    if (m.doc.entry.in_model && m.doc.queue_id == m.queue_id) continue;  // back
+    changing.push_back(&m);
   }
+  auto sum = [&changing](size_t begin, size_t end, CountDelta* into) {
+    for (size_t i = begin; i < end; ++i) {
+      const Moving& m = *changing[i];
+      if (m.doc.entry.in_model) {
+        into->Move(m.doc.queue_id, m.queue_id, m.doc);
+      } else {
+        into->Add(m.queue_id, m.doc, +1);
+      }
+    }
+  };
+  CountDelta counts, second_half;
+  const size_t half = changing.size() / 2;
+  {
+    struct Joiner {
+      std::thread thread;
+      ~Joiner() {
+        if (thread.joinable()) thread.join();
+      }
+    } summing;
+    // A handful of documents is summed here alone.
+    const size_t mine = changing.size() < 64 ? changing.size() : half;
+    if (mine < changing.size())
+      summing.thread = std::thread(sum, mine, changing.size(), &second_half);
+    for (const Moving* m : changing) {
+      s = relabel.Bind(1, m->queue_id).Bind(2, m->doc.ledger_id).Run();
+      if (!s.ok()) return s;
+    }
+    sum(0, mine, &counts);
+  }
+  counts.Add(second_half);
   // Moves keep every term's total, so no term leaves the vocabulary.
   if (sum_state_ == SumState::kFresh) {
     if (s = StartRunningSumInTransaction(); !s.ok()) return s;

@@ -60,6 +60,23 @@ TEST_F(CountRowsTest, OneStatementWritesEveryRowAndReplacesCounts) {
   EXPECT_EQ(Table(), want);
 }
 
+TEST_F(CountRowsTest, TermRowsGiveIdsAndTextsToOneStatement) {
+  ASSERT_TRUE(sql::Exec(db_.get(), "CREATE TABLE terms (id INTEGER PRIMARY KEY, text TEXT NOT "
+                                   "NULL UNIQUE)")
+                  .ok());
+  const std::string long_term(300, 'x');
+  const std::vector<TermRow> rows = {{5, "berth"}, {6, "d\xc3\xa9p\xc3\xb4t"}, {9, long_term}};
+  sql::Statement st(db_.get(), "INSERT INTO terms(id, text) SELECT id, text FROM term_rows(?)");
+  ASSERT_TRUE(st.ok()) << st.error();
+  BindTermRows(st.handle(), 1, &rows);
+  ASSERT_TRUE(st.Run().ok());
+  sql::Statement read(db_.get(), "SELECT id, text FROM terms ORDER BY id");
+  std::vector<std::pair<int64_t, std::string>> got;
+  while (read.Step() == SQLITE_ROW) got.emplace_back(read.ColumnInt(0), read.ColumnText(1));
+  EXPECT_EQ(got, (std::vector<std::pair<int64_t, std::string>>{
+                     {5, "berth"}, {6, "d\xc3\xa9p\xc3\xb4t"}, {9, long_term}}));
+}
+
 TEST_F(CountRowsTest, WithoutItsArgumentTheTableIsRefused) {
   sql::Statement st(db_.get(), "SELECT * FROM count_rows");
   EXPECT_FALSE(st.ok());

@@ -48,6 +48,27 @@ TEST(CountsSumTest, ChangeIsSubtractThenAdd) {
   EXPECT_EQ(a, CountsSum());
 }
 
+// Sums kept apart (as two threads keep them) and then added equal the one
+// sum, carries included; so do sums with subtractions in them.
+TEST(CountsSumTest, SumsKeptApartAddUpToTheOneSum) {
+  CountsSum whole, even, odd;
+  for (int i = 1; i < 500; ++i) {
+    const std::string term = "t" + std::to_string(i);
+    const int sign = i % 7 == 0 ? -1 : 1;
+    whole.Add(term, "q", i, sign);
+    (i % 2 ? odd : even).Add(term, "q", i, sign);
+  }
+  CountsSum added = even;
+  added.Add(odd);
+  EXPECT_EQ(added, whole);
+  CountsSum other_way = odd;
+  other_way.Add(even);
+  EXPECT_EQ(other_way, whole);
+  CountsSum nothing;
+  nothing.Add(CountsSum());
+  EXPECT_EQ(nothing, CountsSum());
+}
+
 TEST(CountsSumTest, HexRoundTrips) {
   CountsSum a;
   a.Add("harbour", "berths", 41);

@@ -445,6 +445,44 @@ TEST_F(StoreChangesTest, CorrectionsAndForgetsOfEverySizeAreExact) {
   }
 }
 
+// Learning writes its counts the same ways (count_writer.h): into an empty
+// store, then batches of 1, 5, 50 and the rest of 400 documents, whose terms
+// are partly known and partly new, must give the model (and the term ids'
+// uniqueness, and a fingerprint check accepts) of learning all at once.
+TEST_F(StoreChangesTest, LearningInBatchesOfEverySizeGivesTheModelOfOneBatch) {
+  std::mt19937 rng(21);
+  auto draw = [&rng](unsigned n) { return static_cast<unsigned>(rng() % n); };
+  const std::vector<std::string> queues = {"berth-bookings", "billing", "marina"};
+  std::vector<Doc> docs;
+  for (unsigned i = 0; i < 400; ++i) {
+    Doc d{Digest("ba7c4e00", i), queues[draw(3)], {}};
+    const unsigned length = 3 + draw(30);
+    for (unsigned k = 0; k < length; ++k)
+      d.terms.push_back("v" + std::to_string(std::min(draw(5000), draw(5000))));
+    docs.push_back(std::move(d));
+  }
+  std::unique_ptr<Store> batches = Build("batches.db", {});
+  ASSERT_NE(batches, nullptr);
+  size_t next = 0;
+  for (const size_t size : {1u, 5u, 50u, 344u}) {
+    LearnBatch batch;
+    for (size_t i = next; i < next + size; ++i)
+      batch.Add(docs[i].digest, docs[i].queue, SourceOf(docs[i]), docs[i].terms);
+    next += size;
+    LearnResult result;
+    Status s = batches->Learn(batch, {kChange.now, "tester"}, &result);
+    ASSERT_TRUE(s.ok()) << s.message();
+    EXPECT_EQ(result.learned, static_cast<int64_t>(size));
+  }
+  ASSERT_EQ(next, docs.size());
+  std::unique_ptr<Store> once = Build("once.db", docs);
+  ASSERT_NE(once, nullptr);
+  ExpectSameModel(batches.get(), once.get());
+  CheckReport report;
+  ASSERT_TRUE(CheckStore(dir_.File("batches.db"), &report).ok());
+  EXPECT_TRUE(report.consistent());
+}
+
 TEST_F(StoreChangesTest, CorrectAndLearnShareOneTransaction) {
   const std::vector<Doc> docs = Corpus();
   std::unique_ptr<Store> store = Build("s.db", docs);
