@@ -1,6 +1,7 @@
 // chute correct: moves learned documents to the queues a reviewer says they
 // belong in (and learns the new ones), from a CSV file, in one transaction.
 #include <CLI/CLI.hpp>
+#include <algorithm>
 #include <map>
 #include <set>
 
@@ -11,6 +12,7 @@
 #include "cli/format/csv_writer.h"
 #include "cli/format/json_writer.h"
 #include "cli/format/table_writer.h"
+#include "cli/parallel.h"
 #include "cli/read/csv_records.h"
 #include "cli/read/document_name.h"
 #include "store/queue_name.h"
@@ -29,6 +31,7 @@ struct CorrectOptions {
   bool candidate = false;
   OutputFormat format = OutputFormat::kTable;
   int64_t max_bytes = kDefaultMaxBytes;
+  size_t threads = 1;  // reading and naming the files
   // --from-folders DEST (correct_from_folders.h) instead of a file.
   std::string from_folders;
   std::string confirm_after;
@@ -161,88 +164,103 @@ int RunCorrect(const CorrectOptions& o) {
   LearnBatch batch;
   std::vector<size_t> line_of_batch_doc;
   std::vector<std::string> terms;
-  for (size_t r = 1; r < records.size(); ++r) {
-    const CsvRecord& rec = records[r];
-    auto field = [&](int col) {
-      return static_cast<size_t>(col) < rec.fields.size() ? rec.fields[col]
-                                                          : std::string();
-    };
-    Line line{rec.line,         field(doc_col), "", "",
-              field(queue_col), "refused",      ""};
-    auto refuse = [&](std::string reason) {
-      line.reason = std::move(reason);
-      Report("correct",
-             o.csv + ": line " + std::to_string(rec.line) + ": " +
-                 (line.document.empty() ? "" : line.document + ": ") +
-                 line.reason);
-      lines.push_back(line);
-    };
-    if (line.document.empty()) {
-      refuse("no document");
-      continue;
-    }
-    if (line.to.empty()) {
-      refuse("no queue");
-      continue;
-    }
-    if (!queues.count(line.to)) {
-      if (!o.create_queues) {
-        refuse("queue '" + line.to +
-               "' does not exist (add --create-queues to create it)");
-        continue;
-      }
-      if (Status v = ValidateQueueName(line.to); !v.ok()) {
-        refuse(v.message());
-        continue;
-      }
-      queues.insert(line.to);
-    }
-    NamedDocument nd;
-    NameDocument(line.document, folder, ReadOptions{o.max_bytes}, &nd);
-    Resolution res;
-    if (Status s = store->ResolveDocument(nd.name, &res); !s.ok()) {
-      Report("correct", s.message() + "; nothing was changed");
-      return kExitFailed;
-    }
-    if (res.kind == Resolution::Kind::kFound) {
-      line.digest = res.entry.digest;
-      line.outcome = "corrected";  // or unchanged, once the store has said
-      line_of_move.push_back(lines.size());
-      moves.push_back({res.entry.digest, line.to});
-      lines.push_back(line);
-    } else if (res.kind == Resolution::Kind::kAmbiguous) {
-      std::string list;
-      for (size_t i = 0; i < res.candidates.size() && i < 5; ++i) {
-        list += (i ? ", " : "") + ShortDigest(res.candidates[i]);
-      }
-      refuse("matches several learned documents (" + list +
-             (res.candidates.size() > 5 ? ", ..." : "") +
-             "); give more of the digest");
-    } else if (nd.is_file && !nd.read_status.ok()) {
-      refuse(ReasonOf(nd.read_status, nd.path));
-    } else if (nd.is_file) {
-      terms.clear();
-      tokenizer.Tokenize(nd.document.text, &terms);
-      if (terms.empty()) {
-        refuse("not learned, and no terms to learn");
-        continue;
-      }
-      std::string packed_text;
-      if (store->settings().keep_text) {
-        if (Status p = codec.Pack(nd.document.text, &packed_text); !p.ok()) {
-          refuse(p.message());
-          continue;
+  // In windows of lines: first each line's fields are checked, in order;
+  // then the files are read and their digests taken on every core (most of
+  // the time of naming); then, in order again, each name is looked up and
+  // the line decided. Reports come out in line order.
+  constexpr size_t kNamingWindow = 256;
+  struct Pending {
+    Line line;
+    std::string problem;  // a refusal found by the first look, or empty
+    NamedDocument named;
+  };
+  std::vector<Pending> window;
+  for (size_t first = 1; first < records.size(); first += kNamingWindow) {
+    const size_t last = std::min(records.size(), first + kNamingWindow);
+    window.assign(last - first, Pending());
+    for (size_t r = first; r < last; ++r) {
+      const CsvRecord& rec = records[r];
+      auto field = [&](int col) {
+        return static_cast<size_t>(col) < rec.fields.size() ? rec.fields[col] : std::string();
+      };
+      Pending& p = window[r - first];
+      p.line = Line{rec.line, field(doc_col), "", "", field(queue_col), "refused", ""};
+      if (p.line.document.empty()) {
+        p.problem = "no document";
+      } else if (p.line.to.empty()) {
+        p.problem = "no queue";
+      } else if (!queues.count(p.line.to)) {
+        if (!o.create_queues) {
+          p.problem = "queue '" + p.line.to + "' does not exist (add --create-queues to create it)";
+        } else if (Status v = ValidateQueueName(p.line.to); !v.ok()) {
+          p.problem = v.message();
+        } else {
+          queues.insert(p.line.to);
         }
       }
-      line.digest = nd.document.digest;
-      line.outcome = "learned";
-      line.reason = "was not learned before";
-      batch.Add(nd.document.digest, line.to, SourcePath(nd.path), terms,
-                std::move(packed_text));
-      line_of_batch_doc.push_back(lines.size());
-      lines.push_back(line);
-    } else {
-      refuse(UnknownReason(line.document, nd));
+    }
+    ParallelFor(window.size(), o.threads, [&](size_t i, size_t) {
+      Pending& p = window[i];
+      if (p.problem.empty())
+        NameDocument(p.line.document, folder, ReadOptions{o.max_bytes}, &p.named);
+    });
+    for (Pending& p : window) {
+      Line& line = p.line;
+      auto refuse = [&](std::string reason) {
+        line.reason = std::move(reason);
+        Report("correct", o.csv + ": line " + std::to_string(line.line) + ": " +
+                              (line.document.empty() ? "" : line.document + ": ") + line.reason);
+        lines.push_back(line);
+      };
+      if (!p.problem.empty()) {
+        refuse(p.problem);
+        continue;
+      }
+      NamedDocument& nd = p.named;
+      Resolution res;
+      if (Status s = store->ResolveDocument(nd.name, &res); !s.ok()) {
+        Report("correct", s.message() + "; nothing was changed");
+        return kExitFailed;
+      }
+      if (res.kind == Resolution::Kind::kFound) {
+        line.digest = res.entry.digest;
+        line.outcome = "corrected";  // or unchanged, once the store has said
+        line_of_move.push_back(lines.size());
+        moves.push_back({res.entry.digest, line.to});
+        lines.push_back(line);
+      } else if (res.kind == Resolution::Kind::kAmbiguous) {
+        std::string list;
+        for (size_t i = 0; i < res.candidates.size() && i < 5; ++i) {
+          list += (i ? ", " : "") + ShortDigest(res.candidates[i]);
+        }
+        refuse("matches several learned documents (" + list +
+               (res.candidates.size() > 5 ? ", ..." : "") + "); give more of the digest");
+      } else if (nd.is_file && !nd.read_status.ok()) {
+        refuse(ReasonOf(nd.read_status, nd.path));
+      } else if (nd.is_file) {
+        terms.clear();
+        tokenizer.Tokenize(nd.document.text, &terms);
+        if (terms.empty()) {
+          refuse("not learned, and no terms to learn");
+          continue;
+        }
+        std::string packed_text;
+        if (store->settings().keep_text) {
+          if (Status pk = codec.Pack(nd.document.text, &packed_text); !pk.ok()) {
+            refuse(pk.message());
+            continue;
+          }
+        }
+        line.digest = nd.document.digest;
+        line.outcome = "learned";
+        line.reason = "was not learned before";
+        batch.Add(nd.document.digest, line.to, SourcePath(nd.path), terms,
+                  std::move(packed_text));
+        line_of_batch_doc.push_back(lines.size());
+        lines.push_back(line);
+      } else {
+        refuse(UnknownReason(line.document, nd));
+      }
     }
   }
 
@@ -326,6 +344,7 @@ CommandRun SetupCorrect(CLI::App* cmd) {
       ->needs(folders);
   AddFormatOption(cmd, &o->format);
   AddMaxBytesOption(cmd, &o->max_bytes);
+  AddThreadsOption(cmd, &o->threads);
   cmd->footer(
       R"(Each line names a document and the queue it belongs in. The document is a
 path (relative paths are relative to the CSV file; the digest of the file as
