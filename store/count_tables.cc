@@ -15,11 +15,6 @@ CountTables::CountTables(sqlite3* db, std::string path, std::string_view terms,
       "INSERT INTO " + c +
           "(term_id, queue_id, n) VALUES(?, ?, ?) "
           "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n");
-  upsert_all_ = sql::Statement(
-      db,
-      "INSERT INTO " + c +
-          "(term_id, queue_id, n) SELECT term_id, queue_id, n FROM count_rows(?) WHERE true "
-          "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = n + excluded.n");
   lower_ = sql::Statement(
       db, "UPDATE " + c +
               " SET n = n - ? WHERE term_id = ? AND queue_id = ? AND n > ?");
@@ -32,7 +27,7 @@ CountTables::CountTables(sqlite3* db, std::string path, std::string_view terms,
 
 Status CountTables::status() const {
   for (const sql::Statement* st :
-       {&find_term_, &add_term_, &upsert_, &upsert_all_, &lower_, &remove_, &drop_term_}) {
+       {&find_term_, &add_term_, &upsert_, &lower_, &remove_, &drop_term_}) {
     if (!st->ok()) return Status::IoError(path_ + ": " + st->error());
   }
   return Status::Ok();
@@ -43,12 +38,6 @@ Status CountTables::Add(int64_t queue, const std::string& term, int64_t n) {
   Status s = TermId(term, /*create=*/true, &id);
   if (!s.ok()) return s;
   return upsert_.Bind(1, id).Bind(2, queue).Bind(3, n).Run();
-}
-
-Status CountTables::AddAll(const std::vector<CountRow>& rows) {
-  if (rows.empty()) return Status::Ok();
-  BindCountRows(upsert_all_.handle(), 1, &rows);
-  return upsert_all_.Run();
 }
 
 Status CountTables::Subtract(int64_t queue, const std::string& term, int64_t n,

@@ -11,9 +11,7 @@
 #include <cstdint>
 #include <string>
 #include <string_view>
-#include <vector>
 
-#include "store/count_rows.h"
 #include "store/sqlite.h"
 #include "store/status.h"
 
@@ -31,13 +29,6 @@ class CountTables {
 
   // N(q, w) += n; the term joins the vocabulary when it is not there.
   Status Add(int64_t queue, const std::string& term, int64_t n);
-  // The same for many rows of term ids TermId gave, in this transaction,
-  // in one statement (count_rows.h); best sorted by (term_id, queue_id).
-  Status AddAll(const std::vector<CountRow>& rows);
-
-  // The term's id in the vocabulary; with create, a missing term joins it,
-  // and without, it is Corruption.
-  Status TermId(const std::string& term, bool create, int64_t* id);
 
   // N(q, w) -= n; a row that reaches zero is deleted, and with drop_term a
   // term left with no count leaves the vocabulary (*dropped counts it).
@@ -47,10 +38,12 @@ class CountTables {
                   bool drop_term, int64_t* dropped, bool* too_small);
 
  private:
+  Status TermId(const std::string& term, bool create, int64_t* id);
+
   sqlite3* db_;
   std::string path_;
   std::string terms_;
-  sql::Statement find_term_, add_term_, upsert_, upsert_all_, lower_, remove_, drop_term_;
+  sql::Statement find_term_, add_term_, upsert_, lower_, remove_, drop_term_;
 };
 
 }  // namespace chute

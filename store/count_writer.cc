@@ -23,9 +23,9 @@ Status Damaged(sqlite3* db, const std::string& path, int64_t queue_id, std::stri
 
 // before[i] = the count of rows[i] now, 0 when it has no row, read term by
 // term. REQUIRES: rows sorted by (term_id, queue_id).
-Status ReadBefore(sqlite3* db, const std::string& path, const std::vector<CountRow>& rows,
-                  std::vector<int64_t>* before) {
-  sql::Statement st(db, "SELECT queue_id, n FROM counts WHERE term_id = ? ORDER BY queue_id");
+Status ReadBefore(sqlite3* db, const std::string& path, const std::string& counts,
+                  const std::vector<CountRow>& rows, std::vector<int64_t>* before) {
+  sql::Statement st(db, "SELECT queue_id, n FROM " + counts + " WHERE term_id = ? ORDER BY queue_id");
   if (!st.ok()) return Status::IoError(path + ": " + st.error());
   size_t i = 0;
   while (i < rows.size()) {
@@ -62,24 +62,27 @@ Status WriteCountChanges(sqlite3* db, const std::string& path,
                          const CountWriteOptions& options, CountsSum* running,
                          CountWriteResult* result) {
   *result = CountWriteResult();
-  sql::Statement find_term(db, "SELECT id FROM terms WHERE text = ?");
-  sql::Statement add_terms(db, "INSERT INTO terms(id, text) SELECT id, text FROM term_rows(?)");
+  // Table names chute itself gives (never user input).
+  const std::string terms_table = options.terms_table, counts = options.counts_table;
+  sql::Statement find_term(db, "SELECT id FROM " + terms_table + " WHERE text = ?");
+  sql::Statement add_terms(
+      db, "INSERT INTO " + terms_table + "(id, text) SELECT id, text FROM term_rows(?)");
   // The counts before the change are needed (for the fingerprint's sum and
   // to find damage): change_in_pass records them as it goes, or they are
   // read first. A statement with RETURNING n would cost SQLite a temporary
   // table per row (measured: ten times the file writes of a correction).
   sql::Statement change_in_pass(
       db,
-      "UPDATE counts SET n = count_after(?1, term_id, queue_id, n) "
+      "UPDATE " + counts + " SET n = count_after(?1, term_id, queue_id, n) "
       "WHERE term_id BETWEEN ?2 AND ?3 AND count_after(?1, term_id, queue_id, n) NOT IN (0, n)");
   sql::Statement upsert(db,
-                        "INSERT INTO counts(term_id, queue_id, n) "
+                        "INSERT INTO " + counts + "(term_id, queue_id, n) "
                         "SELECT term_id, queue_id, n FROM count_rows(?) WHERE true "
                         "ON CONFLICT(term_id, queue_id) DO UPDATE SET n = excluded.n");
-  sql::Statement remove(db, "DELETE FROM counts WHERE term_id = ? AND queue_id = ?");
+  sql::Statement remove(db, "DELETE FROM " + counts + " WHERE term_id = ? AND queue_id = ?");
   sql::Statement drop_term(db,
-                           "DELETE FROM terms WHERE id = ? AND NOT EXISTS "
-                           "(SELECT 1 FROM counts WHERE term_id = ?)");
+                           "DELETE FROM " + terms_table + " WHERE id = ? AND NOT EXISTS "
+                           "(SELECT 1 FROM " + counts + " WHERE term_id = ?)");
   for (const sql::Statement* st :
        {&find_term, &add_terms, &change_in_pass, &upsert, &remove, &drop_term}) {
     if (!st->ok()) return Status::IoError(path + ": " + st->error());
@@ -104,7 +107,7 @@ Status WriteCountChanges(sqlite3* db, const std::string& path,
   // the table, here and for the counts.
   int64_t largest_id = 0;
   {
-    sql::Statement st(db, "SELECT IFNULL(MAX(id), 0) FROM terms");
+    sql::Statement st(db, "SELECT IFNULL(MAX(id), 0) FROM " + terms_table);
     if (!st.ok() || st.Step() != SQLITE_ROW) return sql::ErrorStatus(db, path);
     largest_id = st.ColumnInt(0);
   }
@@ -113,7 +116,8 @@ Status WriteCountChanges(sqlite3* db, const std::string& path,
     // terms' index on text is in byte order (SQLite's BINARY collation is
     // memcmp, as std::string_view's <), the order of `order`: one merge.
     if (largest_id > 0) {
-      sql::Statement scan(db, "SELECT text, id FROM terms WHERE text >= ? ORDER BY text");
+      sql::Statement scan(db,
+                          "SELECT text, id FROM " + terms_table + " WHERE text >= ? ORDER BY text");
       if (!scan.ok()) return Status::IoError(path + ": " + scan.error());
       scan.Bind(1, terms[order[0]]);
       size_t j = 0;
@@ -223,7 +227,7 @@ Status WriteCountChanges(sqlite3* db, const std::string& path,
     }
     to_write = &rows;
   } else {
-    if (Status s = ReadBefore(db, path, rows, &before); !s.ok()) return s;
+    if (Status s = ReadBefore(db, path, counts, rows, &before); !s.ok()) return s;
     for (size_t i = 0; i < rows.size(); ++i) {
       const int64_t after = before[i] + rows[i].n;
       if (after < 0) return Damaged(db, path, rows[i].queue_id, term_of(i));

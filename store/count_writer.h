@@ -41,6 +41,10 @@ struct CountWriteOptions {
   // terms is in byte order already (learn ranks its terms so): not sorted
   // again.
   bool terms_sorted = false;
+  // The vocabulary and counts tables: the model's, or a rebuild's recount
+  // beside them (rebuild_terms, rebuild_counts; schema.h).
+  const char* terms_table = "terms";
+  const char* counts_table = "counts";
 };
 
 struct CountWriteResult {
