@@ -90,10 +90,10 @@ class LedgerReader {
 
 // The counts change of a whole transaction: whole documents added to or
 // taken out of queues are summed in memory per (term, queue) and per queue,
-// then Apply writes each (term, queue) once, in the key order of `counts`
-// (term id, queue id), and each queue's documents and N(q) once, as learn
-// does (store.cc). Counts never hold a zero row: a sum that reaches zero
-// deletes the row.
+// then Apply writes each (term, queue) once through the counts writer
+// (count_writer.h), as learn does, and each queue's documents and N(q)
+// once. Counts never hold a zero row: a sum that reaches zero deletes the
+// row.
 class CountDelta {
  public:
   // N(q, w) += sign * n for every term of doc, N(q) += sign * tokens,

@@ -5,7 +5,7 @@
 #include <algorithm>
 #include <map>
 #include <string>
-#include <unordered_map>
+#include <string_view>
 #include <utility>
 #include <vector>
 

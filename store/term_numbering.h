@@ -46,14 +46,6 @@ class TermNumbering {
     return number;
   }
 
-  // Makes room for `terms` distinct terms.
-  void Reserve(size_t terms) {
-    size_t want = slots_.size();
-    while (want < 2 * terms) want *= 2;
-    if (want > slots_.size()) Rehash(want);
-    terms_.reserve(terms);
-  }
-
   size_t size() const { return terms_.size(); }
   // The term numbered n (the reference stays valid as terms are added).
   const std::string& term(uint32_t n) const { return *terms_[n]; }
