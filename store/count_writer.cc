@@ -56,6 +56,39 @@ Status ReadQueueNames(sqlite3* db, const std::string& path,
   return rc == SQLITE_DONE ? Status::Ok() : sql::ErrorStatus(db, path);
 }
 
+size_t CountSums::ColumnOf(int64_t queue_id) {
+  size_t c = 0;
+  while (c < queue_ids_.size() && queue_ids_[c] != queue_id) ++c;
+  if (c == queue_ids_.size()) {
+    queue_ids_.push_back(queue_id);
+    columns_.emplace_back();
+  }
+  return c;
+}
+
+void CountSums::Add(const CountSums& other) {
+  std::vector<uint32_t> number(other.terms_.size());
+  for (uint32_t t = 0; t < number.size(); ++t) number[t] = terms_.Number(other.terms_.term(t));
+  for (size_t oc = 0; oc < other.queue_ids_.size(); ++oc) {
+    std::vector<int64_t>& mine = column(ColumnOf(other.queue_ids_[oc]));
+    const std::vector<int64_t>& theirs = other.columns_[oc];
+    for (uint32_t t = 0; t < theirs.size(); ++t) mine[number[t]] += theirs[t];
+  }
+}
+
+Status CountSums::Write(sqlite3* db, const std::string& path, const CountWriteOptions& options,
+                        CountsSum* running, CountWriteResult* result) const {
+  std::vector<std::string_view> terms(terms_.size());
+  for (uint32_t t = 0; t < terms.size(); ++t) terms[t] = terms_.term(t);
+  std::vector<CountChange> changes;
+  for (size_t c = 0; c < columns_.size(); ++c) {
+    for (uint32_t t = 0; t < columns_[c].size(); ++t) {
+      if (columns_[c][t] != 0) changes.push_back({t, queue_ids_[c], columns_[c][t]});
+    }
+  }
+  return WriteCountChanges(db, path, terms, std::move(changes), options, running, result);
+}
+
 Status WriteCountChanges(sqlite3* db, const std::string& path,
                          const std::vector<std::string_view>& terms,
                          std::vector<CountChange> changes,

@@ -25,6 +25,7 @@
 
 #include "store/fingerprint.h"
 #include "store/status.h"
+#include "store/term_numbering.h"
 
 namespace chute {
 
@@ -63,6 +64,44 @@ Status WriteCountChanges(sqlite3* db, const std::string& path,
                          std::vector<CountChange> changes,
                          const CountWriteOptions& options, CountsSum* running,
                          CountWriteResult* result);
+
+// Changes to N(q, w) summed in memory before they are written: terms
+// numbered on first sight, one column of sums per queue (a handful), each
+// column as long as the terms it has seen. Write hands every non-zero sum
+// to WriteCountChanges.
+class CountSums {
+ public:
+  // The numbering, for callers that look many terms up at once (Hash,
+  // Prefetch, then Number).
+  TermNumbering& terms() { return terms_; }
+
+  // The index of the queue's column, made on first use.
+  size_t ColumnOf(int64_t queue_id);
+  // Column c, long enough for every term numbered so far. The reference
+  // lasts until the next ColumnOf that makes a column.
+  std::vector<int64_t>& column(size_t c) {
+    if (columns_[c].size() < terms_.size()) columns_[c].resize(terms_.size(), 0);
+    return columns_[c];
+  }
+
+  // N(q, w) += n.
+  void Add(int64_t queue_id, std::string_view term, int64_t n) {
+    const size_t c = ColumnOf(queue_id);
+    const uint32_t t = terms_.Number(term);
+    column(c)[t] += n;
+  }
+  // Adds another's sums to these.
+  void Add(const CountSums& other);
+
+  // WriteCountChanges of every non-zero sum.
+  Status Write(sqlite3* db, const std::string& path, const CountWriteOptions& options,
+               CountsSum* running, CountWriteResult* result) const;
+
+ private:
+  TermNumbering terms_;
+  std::vector<int64_t> queue_ids_;              // by column
+  std::vector<std::vector<int64_t>> columns_;  // sums by term number
+};
 
 // Every queue's name by id (retired ones too): for the row digests of the
 // fingerprint's sum, and for messages.

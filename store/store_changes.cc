@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cstdint>
 #include <functional>
+#include <map>
 #include <string>
 #include <string_view>
 #include <thread>
@@ -16,7 +17,6 @@
 #include "store/fault_point.h"
 #include "store/store.h"
 #include "store/term_counts_codec.h"
-#include "store/term_numbering.h"
 
 namespace chute {
 
@@ -99,22 +99,20 @@ class CountDelta {
   // N(q, w) += sign * n for every term of doc, N(q) += sign * tokens,
   // documents(q) += sign. sign is +1 or -1.
   void Add(int64_t queue_id, const StoredDocument& doc, int sign) {
-    const size_t q = Column(queue_id, sign, doc.entry.tokens);
+    Count(queue_id, sign, doc.entry.tokens);
     if (!Number(doc)) return;
-    std::vector<int64_t>& column = sums_[q];
-    if (column.size() < terms_.size()) column.resize(terms_.size(), 0);
+    std::vector<int64_t>& column = sums_.column(sums_.ColumnOf(queue_id));
     for (const Entry& e : entries_) column[e.number] += sign * e.n;
   }
 
   // Add(from, doc, -1) and Add(to, doc, +1), each term looked up once.
   void Move(int64_t from_queue, int64_t to_queue, const StoredDocument& doc) {
-    const size_t from = Column(from_queue, -1, doc.entry.tokens);
-    const size_t to = Column(to_queue, +1, doc.entry.tokens);
+    Count(from_queue, -1, doc.entry.tokens);
+    Count(to_queue, +1, doc.entry.tokens);
     if (!Number(doc)) return;
-    std::vector<int64_t>& out = sums_[from];
-    std::vector<int64_t>& in = sums_[to];
-    if (out.size() < terms_.size()) out.resize(terms_.size(), 0);
-    if (in.size() < terms_.size()) in.resize(terms_.size(), 0);
+    const size_t from = sums_.ColumnOf(from_queue), to = sums_.ColumnOf(to_queue);
+    std::vector<int64_t>& out = sums_.column(from);
+    std::vector<int64_t>& in = sums_.column(to);
     for (const Entry& e : entries_) {
       __builtin_prefetch(&out[e.number]);
       __builtin_prefetch(&in[e.number]);
@@ -128,16 +126,10 @@ class CountDelta {
   // Adds another delta's sums and totals to this one's.
   void Add(const CountDelta& other) {
     if (other.malformed_ >= 0 && malformed_ < 0) malformed_ = other.malformed_;
-    std::vector<uint32_t> number(other.terms_.size());
-    for (uint32_t t = 0; t < other.terms_.size(); ++t) number[t] = terms_.Number(other.terms_.term(t));
-    for (size_t oq = 0; oq < other.queue_ids_.size(); ++oq) {
-      const size_t q = ColumnOf(other.queue_ids_[oq]);
-      totals_[q].documents += other.totals_[oq].documents;
-      totals_[q].tokens += other.totals_[oq].tokens;
-      std::vector<int64_t>& column = sums_[q];
-      if (column.size() < terms_.size()) column.resize(terms_.size(), 0);
-      const std::vector<int64_t>& theirs = other.sums_[oq];
-      for (uint32_t t = 0; t < theirs.size(); ++t) column[number[t]] += theirs[t];
+    sums_.Add(other.sums_);
+    for (const auto& [queue_id, t] : other.totals_) {
+      totals_[queue_id].documents += t.documents;
+      totals_[queue_id].tokens += t.tokens;
     }
   }
 
@@ -158,35 +150,14 @@ class CountDelta {
         "UPDATE queues SET documents = documents + ?, tokens = tokens + ? "
         "WHERE id = ?");
     if (!queue_totals.ok()) return Status::IoError(path + ": " + queue_totals.error());
-    std::vector<std::string_view> terms(terms_.size());
-    for (uint32_t t = 0; t < terms_.size(); ++t) terms[t] = terms_.term(t);
-    std::vector<CountChange> changes;
-    for (size_t q = 0; q < queue_ids_.size(); ++q) {
-      const std::vector<int64_t>& column = sums_[q];
-      for (uint32_t t = 0; t < column.size(); ++t) {
-        if (column[t] != 0) changes.push_back({t, queue_ids_[q], column[t]});
-      }
-    }
     CountWriteOptions options;
     options.drop_terms = drop_terms;
     CountWriteResult written;
-    if (Status s = WriteCountChanges(db, path, terms, std::move(changes), options, running,
-                                     &written);
-        !s.ok())
-      return s;
+    if (Status s = sums_.Write(db, path, options, running, &written); !s.ok()) return s;
     *dropped += written.dropped_terms;
-
-    std::vector<size_t> by_id(queue_ids_.size());
-    for (size_t q = 0; q < by_id.size(); ++q) by_id[q] = q;
-    std::sort(by_id.begin(), by_id.end(),
-              [&](size_t a, size_t b) { return queue_ids_[a] < queue_ids_[b]; });
-    for (size_t q : by_id) {
-      const Totals& t = totals_[q];
+    for (const auto& [queue_id, t] : totals_) {  // by queue id
       if (t.documents == 0 && t.tokens == 0) continue;
-      Status s = queue_totals.Bind(1, t.documents)
-                     .Bind(2, t.tokens)
-                     .Bind(3, queue_ids_[q])
-                     .Run();
+      Status s = queue_totals.Bind(1, t.documents).Bind(2, t.tokens).Bind(3, queue_id).Run();
       if (!s.ok()) return s;
     }
     return Status::Ok();
@@ -197,29 +168,16 @@ class CountDelta {
     int64_t documents = 0;
     int64_t tokens = 0;
   };
-  // The index of the queue's column, made on first use, with its totals
-  // changed by one document of `tokens` tokens (sign +1 or -1).
-  size_t Column(int64_t queue_id, int sign, int64_t tokens) {
-    const size_t q = ColumnOf(queue_id);
-    totals_[q].documents += sign;
-    totals_[q].tokens += sign * tokens;
-    return q;
-  }
-
-  // The index of the queue's column, made on first use.
-  size_t ColumnOf(int64_t queue_id) {
-    size_t q = 0;
-    while (q < queue_ids_.size() && queue_ids_[q] != queue_id) ++q;
-    if (q == queue_ids_.size()) {
-      queue_ids_.push_back(queue_id);
-      sums_.emplace_back();
-      totals_.emplace_back();
-    }
-    return q;
+  // The queue's totals changed by one document of `tokens` tokens (sign +1
+  // or -1).
+  void Count(int64_t queue_id, int sign, int64_t tokens) {
+    Totals& t = totals_[queue_id];
+    t.documents += sign;
+    t.tokens += sign * tokens;
   }
 
   // One term of a document: where its bytes are in text_, its count, its
-  // hash, its number in terms_.
+  // hash, its number in the sums' numbering.
   struct Entry {
     size_t at;
     size_t length;
@@ -237,12 +195,13 @@ class CountDelta {
   bool Number(const StoredDocument& doc) {
     entries_.clear();
     text_.clear();
+    TermNumbering& terms = sums_.terms();
     TermCountsReader reader(doc.term_counts);
     std::string_view term;
     int64_t n = 0;
     while (reader.Next(&term, &n)) {
       const uint64_t hash = TermNumbering::Hash(term);
-      terms_.Prefetch(hash);
+      terms.Prefetch(hash);
       entries_.push_back({text_.size(), term.size(), n, hash, 0});
       text_.append(term);
     }
@@ -251,20 +210,16 @@ class CountDelta {
       return false;
     }
     for (Entry& e : entries_) {
-      e.number = terms_.Number(std::string_view(text_).substr(e.at, e.length), e.hash);
+      e.number = terms.Number(std::string_view(text_).substr(e.at, e.length), e.hash);
     }
     return true;
   }
 
-  TermNumbering terms_;  // every term met, numbered
-  std::vector<Entry> entries_;  // the document being summed (Number)
-  std::string text_;            // its terms' bytes, one after the other
-  int64_t malformed_ = -1;  // the first ledger entry that did not decode
-  // Per queue touched (a handful): its id, its sums by term index (as long
-  // as the terms it has seen), its documents and N(q).
-  std::vector<int64_t> queue_ids_;
-  std::vector<std::vector<int64_t>> sums_;
-  std::vector<Totals> totals_;
+  CountSums sums_;
+  std::map<int64_t, Totals> totals_;  // by queue id
+  std::vector<Entry> entries_;        // the document being summed (Number)
+  std::string text_;                  // its terms' bytes, one after the other
+  int64_t malformed_ = -1;            // the first ledger entry that did not decode
 };
 
 }  // namespace

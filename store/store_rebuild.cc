@@ -5,7 +5,6 @@
 #include <algorithm>
 #include <map>
 #include <string>
-#include <string_view>
 #include <utility>
 #include <vector>
 
@@ -14,7 +13,6 @@
 #include "store/fault_point.h"
 #include "store/store.h"
 #include "store/term_counts_codec.h"
-#include "store/term_numbering.h"
 #include "store/text_codec.h"
 #include "store/version_codec.h"
 
@@ -281,9 +279,7 @@ Status Store::WriteRecountedInTransaction(
   // Summed over the batch first (terms numbered, one column of sums per
   // queue), then written by the writer of the model's counts, each (term,
   // queue) once (count_writer.h), into the side tables.
-  TermNumbering numbering;
-  std::vector<int64_t> column_queue;
-  std::vector<std::vector<int64_t>> columns;
+  CountSums sums;
   std::map<int64_t, std::pair<int64_t, int64_t>>
       totals;  // queue -> documents, tokens
   for (const RecountedDocument& d : docs) {
@@ -301,18 +297,7 @@ Status Store::WriteRecountedInTransaction(
     put.Bind(1, d.ledger_id);
     if (queue) {
       put.Bind(2, queue);
-      size_t c = 0;
-      while (c < column_queue.size() && column_queue[c] != queue) ++c;
-      if (c == column_queue.size()) {
-        column_queue.push_back(queue);
-        columns.emplace_back();
-      }
-      std::vector<int64_t>& column = columns[c];
-      for (const auto& [term, n] : d.terms) {
-        const uint32_t t = numbering.Number(term);
-        if (t >= column.size()) column.resize(numbering.size(), 0);
-        column[t] += n;
-      }
+      for (const auto& [term, n] : d.terms) sums.Add(queue, term, n);
       auto& [documents, tokens] = totals[queue];
       ++documents;
       tokens += d.tokens;
@@ -326,21 +311,11 @@ Status Store::WriteRecountedInTransaction(
     }
   }
   {
-    std::vector<std::string_view> terms(numbering.size());
-    for (uint32_t t = 0; t < terms.size(); ++t) terms[t] = numbering.term(t);
-    std::vector<CountChange> changes;
-    for (size_t c = 0; c < columns.size(); ++c) {
-      for (uint32_t t = 0; t < columns[c].size(); ++t) {
-        if (columns[c][t] != 0) changes.push_back({t, column_queue[c], columns[c][t]});
-      }
-    }
     CountWriteOptions options;
     options.terms_table = "rebuild_terms";
     options.counts_table = "rebuild_counts";
     CountWriteResult written;
-    if (Status s = WriteCountChanges(db, path_, terms, std::move(changes), options,
-                                     /*running=*/nullptr, &written);
-        !s.ok())
+    if (Status s = sums.Write(db, path_, options, /*running=*/nullptr, &written); !s.ok())
       return s;
   }
   for (const auto& [queue, t] : totals) {
